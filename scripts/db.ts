@@ -1,0 +1,24 @@
+// Database tasks for `npm start` and `npm test`:
+//   tsx scripts/db.ts migrate        run pending migrations
+//   tsx scripts/db.ts seed           seed the demo scenario when the database has no clinic yet
+import { closeDb, db } from '../src/lib/db/knex';
+import { migrateLatest } from '../src/lib/db/migrate';
+import { seedDemoIfEmpty } from '../src/lib/demo/seed';
+
+const tasks = process.argv.slice(2);
+try {
+  for (const task of tasks) {
+    if (task === 'migrate') {
+      const applied = await migrateLatest(db());
+      console.log(applied.length ? `migrations applied: ${applied.join(', ')}` : 'database schema is up to date');
+    } else if (task === 'seed') {
+      const seeded = await seedDemoIfEmpty(db(), { password: process.env.KINLOOP_DEMO_PASSWORD ?? 'kinloop-demo-2026' });
+      console.log(seeded ? 'demo scenario seeded' : 'database already has data: demo seed skipped');
+    } else {
+      console.error(`unknown task ${task}; use migrate or seed`);
+      process.exitCode = 64;
+    }
+  }
+} finally {
+  await closeDb();
+}

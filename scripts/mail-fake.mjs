@@ -1,0 +1,62 @@
+// A local SMTP server that accepts every message and keeps it as JSON in a
+// folder, so that development and tests can read what Kinloop sent.
+//   node scripts/mail-fake.mjs --port 2525 --dir .data/mailbox
+import { randomUUID } from 'node:crypto';
+import { mkdirSync, renameSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
+import { parseArgs } from 'node:util';
+import { simpleParser } from 'mailparser';
+import { SMTPServer } from 'smtp-server';
+
+const { values } = parseArgs({
+  options: {
+    port: { type: 'string', default: '2525' },
+    address: { type: 'string', default: '127.0.0.1' },
+    dir: { type: 'string' },
+  },
+});
+if (!values.dir) {
+  console.error('usage: mail-fake.mjs --dir DIR [--port N]');
+  process.exit(64);
+}
+mkdirSync(values.dir, { recursive: true });
+
+const addresses = (field) => (field ? [field].flat().flatMap((a) => a.value.map((v) => v.address)) : []);
+
+const server = new SMTPServer({
+  authOptional: true,
+  disabledCommands: ['STARTTLS'],
+  logger: false,
+  onData(stream, session, callback) {
+    simpleParser(stream)
+      .then((mail) => {
+        const id = `${Date.now()}-${randomUUID()}`;
+        const record = {
+          id,
+          receivedAt: new Date().toISOString(),
+          envelopeFrom: session.envelope.mailFrom ? session.envelope.mailFrom.address : null,
+          envelopeTo: session.envelope.rcptTo.map((r) => r.address),
+          from: addresses(mail.from)[0] ?? null,
+          to: addresses(mail.to),
+          subject: mail.subject ?? '',
+          text: mail.text ?? '',
+          html: typeof mail.html === 'string' ? mail.html : '',
+          headers: Object.fromEntries([...mail.headers].filter(([, v]) => typeof v === 'string')),
+        };
+        // Write then rename, so that a reader never sees half a message.
+        const tmp = path.join(values.dir, `.${id}.tmp`);
+        writeFileSync(tmp, JSON.stringify(record, null, 2));
+        renameSync(tmp, path.join(values.dir, `${id}.json`));
+        callback();
+      })
+      .catch((err) => callback(err));
+  },
+});
+server.on('error', (err) => console.error(`mail-fake: ${err.message}`));
+server.listen(Number(values.port), values.address, () => {
+  console.log(`mail-fake ready on smtp://${values.address}:${values.port} dir=${values.dir}`);
+});
+
+const stop = () => server.close(() => process.exit(0));
+process.on('SIGTERM', stop);
+process.on('SIGINT', stop);

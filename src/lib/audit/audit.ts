@@ -1,0 +1,28 @@
+import type { Knex } from 'knex';
+
+export interface AuditEntry {
+  actorUserId: string | null;
+  action: string;
+  clinicId?: string | null;
+  clientId?: string | null;
+  recordType?: string | null;
+  recordId?: string | null;
+  ip?: string | null;
+  userAgent?: string | null;
+  detail?: Record<string, unknown>;
+}
+
+/** Appends to the audit log. Pass the transaction when the change it records has one, so both land or neither. */
+export async function audit(knex: Knex | Knex.Transaction, entry: AuditEntry): Promise<void> {
+  await knex('audit_log').insert({
+    actor_user_id: entry.actorUserId,
+    action: entry.action,
+    clinic_id: entry.clinicId ?? null,
+    client_id: entry.clientId ?? null,
+    record_type: entry.recordType ?? null,
+    record_id: entry.recordId ?? null,
+    ip: entry.ip ?? null,
+    user_agent: entry.userAgent?.slice(0, 400) ?? null,
+    detail: JSON.stringify(entry.detail ?? {}),
+  });
+}

@@ -1,0 +1,50 @@
+import { z } from 'zod';
+import { staffClinic } from '../auth/access';
+import type { RequestContext } from '../auth/context';
+
+export const auditQuerySchema = z.object({
+  clinicId: z.string().uuid().optional(),
+  clientId: z.string().uuid().optional(),
+  action: z.string().max(80).optional(),
+  before: z.coerce.number().int().positive().optional(),
+  limit: z.coerce.number().int().min(1).max(200).default(50),
+});
+
+/**
+ * The clinic's audit log, newest first, for its admins. Entries without a
+ * clinic (sign-ins) are included when their actor belongs to the clinic.
+ */
+export async function readAuditLog(ctx: RequestContext, query: z.infer<typeof auditQuerySchema>) {
+  const clinicId = staffClinic(ctx.viewer, ['admin'], query.clinicId);
+  const q = ctx.knex('audit_log as a')
+    .leftJoin('users as u', 'u.id', 'a.actor_user_id')
+    .leftJoin('clients as c', 'c.id', 'a.client_id')
+    .where((w) => {
+      w.where('a.clinic_id', clinicId).orWhere((x) =>
+        x.whereNull('a.clinic_id').whereIn('a.actor_user_id', (s) => {
+          s.select('user_id').from('memberships').where('clinic_id', clinicId)
+            .union((u) => u.select('carer_user_id').from('carer_links').join('clients', 'clients.id', 'carer_links.client_id').where('clients.clinic_id', clinicId))
+            .union((u) => u.select('user_id').from('clients').where('clinic_id', clinicId).whereNotNull('user_id'));
+        }),
+      );
+    })
+    .orderBy('a.id', 'desc')
+    .limit(query.limit)
+    .select('a.*', 'u.name as actor_name', 'u.email as actor_email', 'c.display_name as client_name');
+  if (query.clientId) q.where('a.client_id', query.clientId);
+  if (query.action) q.where('a.action', 'like', `${query.action.replace(/[%_\\]/g, '\\$&')}%`);
+  if (query.before) q.where('a.id', '<', query.before);
+  const rows = await q;
+  return rows.map((r) => ({
+    id: Number(r.id),
+    at: r.at.toISOString(),
+    action: r.action,
+    actor: r.actor_user_id ? { userId: r.actor_user_id, name: r.actor_name, email: r.actor_email } : null,
+    clientId: r.client_id,
+    clientName: r.client_name,
+    recordType: r.record_type,
+    recordId: r.record_id,
+    ip: r.ip,
+    detail: r.detail,
+  }));
+}

@@ -1,0 +1,222 @@
+import type { Knex } from 'knex';
+import { z } from 'zod';
+import { audit } from '../audit/audit';
+import { config } from '../config';
+import type { AuthSessionRow, ClientRow, InvitationRow, UserRow } from '../db/tables';
+import { HttpError, badRequest, conflict, forbidden } from '../http/errors';
+import { enqueueEmail } from '../mail/outbox';
+import { invitationEmail } from '../mail/templates';
+import { accessClient, staffClinic } from './access';
+import { auditAs, type RequestContext } from './context';
+import { hashPassword, passwordSchema, verifyPassword } from './password';
+import { createSession } from './sessions';
+import { findUserByEmail, normaliseEmail, type RequestMeta } from './sign-in';
+import { hashToken, newToken } from './tokens';
+
+export const INVITATION_DAYS = 7;
+
+export const invitationInputSchema = z
+  .object({
+    email: z.string().trim().email('Enter a valid e-mail address.').max(254),
+    name: z.string().trim().min(1).max(120).optional(),
+    role: z.enum(['admin', 'therapist', 'client', 'carer']),
+    clinicId: z.string().uuid().optional(),
+    clientId: z.string().uuid().optional(),
+    relationship: z.string().trim().min(1).max(60).optional(),
+  })
+  .refine((v) => (v.role === 'client' || v.role === 'carer') === Boolean(v.clientId), {
+    message: 'A client or carer invitation names the client (clientId); a staff invitation does not.',
+    path: ['clientId'],
+  });
+export type InvitationInput = z.infer<typeof invitationInputSchema>;
+
+export const acceptInputSchema = z.object({
+  token: z.string().min(20).max(200),
+  name: z.string().trim().min(1, 'Enter your name.').max(120).optional(),
+  password: passwordSchema,
+});
+
+async function activeInvitation(knex: Knex | Knex.Transaction, token: string) {
+  const row = await knex<InvitationRow>('invitations').where({ token_hash: hashToken(token) }).first();
+  if (!row || row.accepted_at || row.revoked_at || row.expires_at.getTime() <= Date.now()) return null;
+  return row;
+}
+
+/**
+ * Admins invite therapists and admins to their clinic; therapists and admins
+ * invite a client (to the client's own account) and a client's carers.
+ */
+export async function createInvitation(ctx: RequestContext, input: InvitationInput) {
+  let clinicId: string;
+  let client: ClientRow | null = null;
+  if (input.role === 'admin' || input.role === 'therapist') {
+    clinicId = staffClinic(ctx.viewer, ['admin'], input.clinicId);
+  } else {
+    client = await accessClient(ctx, input.clientId!, 'manage', 'client.view', { for: 'invitation' });
+    clinicId = client.clinic_id;
+    if (input.role === 'client' && client.user_id) {
+      throw conflict('already_has_account', `${client.display_name} already has an account.`);
+    }
+  }
+  const email = normaliseEmail(input.email);
+  const existing = await findUserByEmail(ctx.knex, email);
+  if (existing && client && input.role === 'carer') {
+    const linked = await ctx.knex('carer_links').where({ carer_user_id: existing.id, client_id: client.id, active: true }).first();
+    if (linked) throw conflict('already_linked', `${email} is already a carer of ${client.display_name}.`);
+  }
+  if (existing && input.role === 'client') {
+    const theirs = await ctx.knex('clients').where({ user_id: existing.id }).first();
+    if (theirs) throw conflict('already_client', `${email} already belongs to another client's account.`);
+  }
+  const { token, hash } = newToken();
+  const expiresAt = new Date(Date.now() + INVITATION_DAYS * 86_400_000);
+  const clinic = await ctx.knex('clinics').where({ id: clinicId }).first('name');
+  return ctx.knex.transaction(async (trx) => {
+    // A new invitation replaces an unanswered one for the same person and purpose.
+    await trx('invitations')
+      .where({ email, role: input.role, clinic_id: clinicId, client_id: client?.id ?? null })
+      .whereNull('accepted_at')
+      .whereNull('revoked_at')
+      .update({ revoked_at: trx.fn.now() });
+    const [row] = await trx<InvitationRow>('invitations')
+      .insert({
+        email,
+        name: input.name ?? null,
+        role: input.role,
+        clinic_id: clinicId,
+        client_id: client?.id ?? null,
+        relationship: input.role === 'carer' ? (input.relationship ?? 'carer') : null,
+        token_hash: hash,
+        invited_by: ctx.viewer.userId,
+        expires_at: expiresAt,
+      })
+      .returning('*');
+    const mail = invitationEmail({
+      inviteeName: input.name ?? null,
+      inviterName: ctx.viewer.name,
+      clinicName: clinic.name,
+      role: input.role,
+      clientName: client?.display_name ?? null,
+      url: `${config().publicUrl}/invite/${token}`,
+      expiresAt,
+    });
+    await enqueueEmail(trx, { kind: 'invitation', to: email, userId: existing?.id ?? null, ...mail });
+    await auditAs(ctx, { action: 'invitation.create', clinicId, clientId: client?.id ?? null, recordType: 'invitation', recordId: row.id, detail: { email, role: input.role } }, trx);
+    return invitationView(row, client?.display_name ?? null);
+  });
+}
+
+export function invitationView(row: InvitationRow, clientName: string | null) {
+  return {
+    id: row.id,
+    email: row.email,
+    name: row.name,
+    role: row.role,
+    clinicId: row.clinic_id,
+    clientId: row.client_id,
+    clientName,
+    relationship: row.relationship,
+    expiresAt: row.expires_at.toISOString(),
+    createdAt: row.created_at.toISOString(),
+  };
+}
+
+/** Pending invitations of the clinics where the caller is staff. */
+export async function listInvitations(ctx: RequestContext) {
+  const clinics = ctx.viewer.memberships.map((m) => m.clinicId);
+  if (!clinics.length) throw forbidden();
+  const rows = await ctx.knex<InvitationRow>('invitations as i')
+    .leftJoin('clients as c', 'c.id', 'i.client_id')
+    .whereIn('i.clinic_id', clinics)
+    .whereNull('i.accepted_at')
+    .whereNull('i.revoked_at')
+    .where('i.expires_at', '>', ctx.knex.fn.now())
+    .orderBy('i.created_at', 'desc')
+    .select('i.*', 'c.display_name as client_name');
+  return rows.map((r: InvitationRow & { client_name: string | null }) => invitationView(r, r.client_name));
+}
+
+export async function revokeInvitation(ctx: RequestContext, id: string) {
+  const row = /^[0-9a-f-]{36}$/i.test(id) ? await ctx.knex<InvitationRow>('invitations').where({ id }).first() : undefined;
+  const role = row ? ctx.viewer.memberships.find((m) => m.clinicId === row.clinic_id)?.role : undefined;
+  if (!row || !role) throw new HttpError(404, 'not_found', 'That invitation was not found.');
+  if ((row.role === 'admin' || row.role === 'therapist') && role !== 'admin') throw forbidden();
+  await ctx.knex('invitations').where({ id }).whereNull('accepted_at').update({ revoked_at: ctx.knex.fn.now() });
+  await auditAs(ctx, { action: 'invitation.revoke', clinicId: row.clinic_id, clientId: row.client_id, recordType: 'invitation', recordId: id });
+}
+
+/** What the invitation page shows before the invitee sets a password. */
+export async function previewInvitation(knex: Knex, token: string) {
+  const row = await activeInvitation(knex, token);
+  if (!row) return null;
+  const [clinic, client, existing] = await Promise.all([
+    knex('clinics').where({ id: row.clinic_id }).first('name'),
+    row.client_id ? knex('clients').where({ id: row.client_id }).first('display_name') : null,
+    findUserByEmail(knex, row.email),
+  ]);
+  return {
+    email: row.email,
+    name: row.name,
+    role: row.role,
+    clinicName: clinic.name as string,
+    clientName: (client?.display_name as string | undefined) ?? null,
+    hasAccount: Boolean(existing?.password_hash),
+  };
+}
+
+/**
+ * Accepts an invitation: creates the account (or, for an e-mail that already
+ * has one, checks its password) and grants the role. Single use.
+ */
+export async function acceptInvitation(
+  knex: Knex,
+  input: z.infer<typeof acceptInputSchema>,
+  meta: RequestMeta,
+): Promise<{ user: UserRow; session: AuthSessionRow }> {
+  return knex.transaction(async (trx) => {
+    const row = await activeInvitation(trx, input.token);
+    if (!row) {
+      throw new HttpError(410, 'invitation_invalid', 'This invitation link has expired, was already used, or was withdrawn. Ask your clinic to send a new one.');
+    }
+    // Claim the invitation first so that two tabs cannot both use it.
+    const claimed = await trx('invitations').where({ id: row.id }).whereNull('accepted_at').update({ accepted_at: trx.fn.now() });
+    if (claimed !== 1) throw new HttpError(410, 'invitation_invalid', 'This invitation link was already used.');
+
+    let user = await findUserByEmail(trx, row.email);
+    if (user?.disabled_at) throw new HttpError(403, 'account_disabled', 'The account for this e-mail is disabled. Contact your clinic.');
+    if (user?.password_hash) {
+      if (!(await verifyPassword(user.password_hash, input.password))) {
+        throw new HttpError(401, 'bad_credentials', 'An account with this e-mail already exists: enter its current password to accept the invitation.');
+      }
+    } else {
+      const name = input.name ?? row.name;
+      if (!name) throw badRequest('Enter your name.', { fields: [{ path: 'name', message: 'Enter your name.' }] });
+      const passwordHash = await hashPassword(input.password);
+      if (user) {
+        [user] = await trx<UserRow>('users').where({ id: user.id }).update({ name, password_hash: passwordHash, updated_at: trx.fn.now() }).returning('*');
+      } else {
+        [user] = await trx<UserRow>('users').insert({ email: row.email, name, password_hash: passwordHash }).returning('*');
+      }
+    }
+    const u = user!;
+    if (row.role === 'admin' || row.role === 'therapist') {
+      await trx('memberships')
+        .insert({ user_id: u.id, clinic_id: row.clinic_id, role: row.role })
+        .onConflict(['user_id', 'clinic_id'])
+        .merge({ role: row.role });
+    } else if (row.role === 'carer') {
+      await trx('carer_links')
+        .insert({ carer_user_id: u.id, client_id: row.client_id, relationship: row.relationship ?? 'carer', active: true })
+        .onConflict(['carer_user_id', 'client_id'])
+        .merge({ active: true, relationship: row.relationship ?? 'carer' });
+    } else {
+      const updated = await trx('clients').where({ id: row.client_id }).whereNull('user_id').update({ user_id: u.id, updated_at: trx.fn.now() });
+      if (updated !== 1) throw conflict('already_has_account', 'This client already has an account.');
+    }
+    await trx('invitations').where({ id: row.id }).update({ accepted_user_id: u.id });
+    const session = await createSession(trx, u.id, meta);
+    await audit(trx, { actorUserId: u.id, action: 'invitation.accept', clinicId: row.clinic_id, clientId: row.client_id, recordType: 'invitation', recordId: row.id, ip: meta.ip, userAgent: meta.userAgent });
+    await audit(trx, { actorUserId: u.id, action: 'auth.sign_in', ip: meta.ip, userAgent: meta.userAgent, recordType: 'auth_session', recordId: session.id, detail: { via: 'invitation' } });
+    return { user: u, session };
+  });
+}

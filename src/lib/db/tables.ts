@@ -1,0 +1,134 @@
+// One typed row per table, as Knex returns them (snake_case columns).
+
+export type StaffRole = 'admin' | 'therapist';
+export type Diagnosis = 'sci' | 'ms' | 'stroke' | 'cerebral_palsy' | 'other';
+export type AdRisk = 'at_risk' | 'not_at_risk' | 'unknown';
+export type InvitationRole = StaffRole | 'client' | 'carer';
+
+export interface ClinicRow {
+  id: string;
+  name: string;
+  time_zone: string;
+  created_at: Date;
+}
+
+export interface UserRow {
+  id: string;
+  email: string;
+  name: string;
+  password_hash: string | null;
+  disabled_at: Date | null;
+  created_at: Date;
+  updated_at: Date;
+}
+
+export interface MembershipRow {
+  id: string;
+  user_id: string;
+  clinic_id: string;
+  role: StaffRole;
+  created_at: Date;
+}
+
+export interface ClientRow {
+  id: string;
+  clinic_id: string;
+  display_name: string;
+  date_of_birth: string | null;
+  diagnosis: Diagnosis;
+  injury_level: string | null;
+  ais_grade: string | null;
+  ad_risk: AdRisk;
+  time_zone: string;
+  body_mass_kg: string | null;
+  program_start: string | null;
+  user_id: string | null;
+  primary_therapist_id: string | null;
+  archived_at: Date | null;
+  created_at: Date;
+  updated_at: Date;
+}
+
+export interface CarerLinkRow {
+  id: string;
+  carer_user_id: string;
+  client_id: string;
+  relationship: string;
+  active: boolean;
+  created_at: Date;
+}
+
+export interface InvitationRow {
+  id: string;
+  email: string;
+  name: string | null;
+  role: InvitationRole;
+  clinic_id: string;
+  client_id: string | null;
+  relationship: string | null;
+  token_hash: string;
+  invited_by: string;
+  expires_at: Date;
+  accepted_at: Date | null;
+  accepted_user_id: string | null;
+  revoked_at: Date | null;
+  created_at: Date;
+}
+
+export interface PasswordResetRow {
+  id: string;
+  user_id: string;
+  token_hash: string;
+  expires_at: Date;
+  used_at: Date | null;
+  created_at: Date;
+}
+
+export interface AuthSessionRow {
+  id: string;
+  user_id: string;
+  created_at: Date;
+  last_seen_at: Date;
+  expires_at: Date;
+  revoked_at: Date | null;
+  ip: string | null;
+  user_agent: string | null;
+}
+
+export interface SignInAttemptRow {
+  id: string;
+  email: string;
+  ip: string;
+  succeeded: boolean;
+  attempted_at: Date;
+}
+
+export interface AuditRow {
+  id: string;
+  at: Date;
+  actor_user_id: string | null;
+  action: string;
+  clinic_id: string | null;
+  client_id: string | null;
+  record_type: string | null;
+  record_id: string | null;
+  ip: string | null;
+  user_agent: string | null;
+  detail: Record<string, unknown>;
+}
+
+export interface OutboxEmailRow {
+  id: string;
+  kind: string;
+  user_id: string | null;
+  to_address: string;
+  subject: string;
+  text_body: string;
+  html_body: string;
+  headers: Record<string, string>;
+  attempts: number;
+  next_attempt_at: Date;
+  last_error: string | null;
+  sent_at: Date | null;
+  created_at: Date;
+}

@@ -1,0 +1,39 @@
+import { ZodError } from 'zod';
+import { HttpError } from './errors';
+
+const NO_STORE = { 'cache-control': 'no-store' };
+
+export function json(body: unknown, status = 200, headers: Record<string, string> = {}): Response {
+  return new Response(JSON.stringify(body), {
+    status,
+    headers: { 'content-type': 'application/json; charset=utf-8', ...NO_STORE, ...headers },
+  });
+}
+
+export function errorResponse(err: unknown): Response {
+  if (err instanceof HttpError) {
+    return json({ error: { code: err.code, message: err.message, ...err.extra } }, err.status, err.headers);
+  }
+  if (err instanceof ZodError) {
+    const fields = err.issues.map((i) => ({ path: i.path.join('.'), message: i.message }));
+    const first = fields[0];
+    const message = first
+      ? `${first.path ? `${first.path}: ` : ''}${first.message}`
+      : 'The request was not valid.';
+    return json({ error: { code: 'invalid_input', message, fields } }, 400);
+  }
+  console.error(err);
+  return json(
+    { error: { code: 'server_error', message: 'Something went wrong on our side. Nothing was changed; please try again in a moment.' } },
+    500,
+  );
+}
+
+/** Runs an endpoint body and maps thrown errors to their JSON answer. */
+export async function handle(fn: () => Promise<Response>): Promise<Response> {
+  try {
+    return await fn();
+  } catch (err) {
+    return errorResponse(err);
+  }
+}

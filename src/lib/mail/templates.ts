@@ -1,0 +1,52 @@
+import type { InvitationRole } from '../db/tables';
+import { renderEmail } from './render';
+
+export const ROLE_WORDS: Record<InvitationRole, string> = {
+  admin: 'clinic administrator',
+  therapist: 'therapist',
+  client: 'rider',
+  carer: 'carer',
+};
+
+const FOOTER = 'Kinloop supports home FES cycling programs. It is not a real-time monitor and does not replace your clinic’s advice.';
+
+export function invitationEmail(p: {
+  inviteeName: string | null;
+  inviterName: string;
+  clinicName: string;
+  role: InvitationRole;
+  clientName: string | null;
+  url: string;
+  expiresAt: Date;
+}) {
+  const what =
+    p.role === 'client'
+      ? 'to follow your home cycling program on Kinloop: your sessions, your progress and your prescription'
+      : p.role === 'carer'
+        ? `to help ${p.clientName} with their home cycling program on Kinloop: upload ride files, record checks before and after rides, and get reminders`
+        : `to join ${p.clinicName} on Kinloop as ${ROLE_WORDS[p.role]}`;
+  const body = renderEmail({
+    greeting: p.inviteeName ? `Hello ${p.inviteeName},` : 'Hello,',
+    paragraphs: [
+      `${p.inviterName} at ${p.clinicName} has invited you ${what}.`,
+      `Open the link below to choose your password. The link works once and until ${p.expiresAt.toUTCString()}.`,
+      'If you did not expect this e-mail, you can ignore it.',
+    ],
+    action: { label: 'Accept the invitation', url: p.url },
+    footer: [FOOTER],
+  });
+  return { subject: `${p.clinicName} invites you to Kinloop`, ...body };
+}
+
+export function passwordResetEmail(p: { name: string; url: string; expiresMinutes: number }) {
+  const body = renderEmail({
+    greeting: `Hello ${p.name},`,
+    paragraphs: [
+      'Someone asked to reset the password of your Kinloop account. If it was you, open the link below and choose a new password.',
+      `The link works once, for ${p.expiresMinutes} minutes. If you did not ask for this, ignore this e-mail: your password stays as it is.`,
+    ],
+    action: { label: 'Choose a new password', url: p.url },
+    footer: [FOOTER],
+  });
+  return { subject: 'Reset your Kinloop password', ...body };
+}

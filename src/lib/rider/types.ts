@@ -1,0 +1,10 @@
+// The slice of a session that the rider's home screens need.
+export interface RiderSession {
+  id: string;
+  /** ISO 8601 instant; sessions without one cannot be placed in a week. */
+  startedAt: string | null;
+  activeS: number;
+  meanPowerW: number | null;
+  peakPower5sW: number | null;
+  distanceM: number | null;
+}

@@ -1,0 +1,96 @@
+// ISO 8601 weeks (Monday first; week 1 holds the year's first Thursday) of
+// dates in a client's time zone. A session belongs to the week of its local
+// start date, so every week computation starts from the local calendar date.
+import { DateTime } from 'luxon';
+import { addDays, isLocalDate, parseLocalDate } from './local-date';
+
+export interface IsoWeek {
+  /** e.g. '2026-W41' */
+  isoWeek: string;
+  year: number;
+  week: number;
+  /** local date YYYY-MM-DD */
+  monday: string;
+  sunday: string;
+}
+
+const WEEK_KEY = /^(\d{4})-W(\d{2})$/;
+
+/** The local calendar date ('YYYY-MM-DD') of an instant in `timeZone`. */
+export function localDate(instant: string | Date, timeZone: string): string {
+  const zoned =
+    instant instanceof Date
+      ? DateTime.fromJSDate(instant, { zone: timeZone })
+      : DateTime.fromISO(instant, { zone: timeZone });
+  if (!zoned.isValid) {
+    throw new RangeError(`Not a valid instant or time zone: ${String(instant)} in ${timeZone}`);
+  }
+  return zoned.toISODate()!;
+}
+
+/**
+ * The ISO week of an instant (taken in `timeZone`) or of a local date
+ * 'YYYY-MM-DD' (already local, so `timeZone` does not move it).
+ */
+export function isoWeekOf(instantOrLocalDate: string | Date, timeZone: string): IsoWeek {
+  const date =
+    typeof instantOrLocalDate === 'string' && isLocalDate(instantOrLocalDate)
+      ? instantOrLocalDate
+      : localDate(instantOrLocalDate, timeZone);
+  return weekOfLocalDate(date);
+}
+
+function weekOfLocalDate(date: string): IsoWeek {
+  const day = parseLocalDate(date);
+  const monday = day.minus({ days: day.weekday - 1 });
+  const year = day.weekYear;
+  const week = day.weekNumber;
+  return {
+    isoWeek: `${year}-W${String(week).padStart(2, '0')}`,
+    year,
+    week,
+    monday: monday.toISODate()!,
+    sunday: monday.plus({ days: 6 }).toISODate()!,
+  };
+}
+
+/** Parses a week key such as '2026-W41'. */
+export function parseIsoWeek(key: string): IsoWeek {
+  const match = WEEK_KEY.exec(key);
+  if (!match) throw new RangeError(`Not an ISO week (YYYY-Www): ${key}`);
+  const year = Number(match[1]);
+  const week = Number(match[2]);
+  const monday = DateTime.fromObject({ weekYear: year, weekNumber: week, weekday: 1 }, { zone: 'utc' });
+  if (!monday.isValid || week < 1 || week > monday.weeksInWeekYear) {
+    throw new RangeError(`Not an ISO week (YYYY-Www): ${key}`);
+  }
+  return weekOfLocalDate(monday.toISODate()!);
+}
+
+function toWeek(week: IsoWeek | string): IsoWeek {
+  return typeof week === 'string' ? parseIsoWeek(week) : week;
+}
+
+export function addWeeks(week: IsoWeek | string, weeks: number): IsoWeek {
+  return weekOfLocalDate(addDays(toWeek(week).monday, weeks * 7));
+}
+
+export function previousWeek(week: IsoWeek | string): IsoWeek {
+  return addWeeks(week, -1);
+}
+
+export function nextWeek(week: IsoWeek | string): IsoWeek {
+  return addWeeks(week, 1);
+}
+
+/** The `count` weeks ending with `end` (inclusive), oldest first. */
+export function weeksEndingAt(end: IsoWeek | string, count: number): IsoWeek[] {
+  if (!Number.isInteger(count) || count < 0) throw new RangeError(`Not a week count: ${count}`);
+  return Array.from({ length: count }, (_, i) => addWeeks(end, i - count + 1));
+}
+
+/** The seven local dates of a week, Monday first. */
+export function datesOfWeek(week: IsoWeek | string): string[] {
+  const monday = toWeek(week).monday;
+  return Array.from({ length: 7 }, (_, i) => addDays(monday, i));
+}
