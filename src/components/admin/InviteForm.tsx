@@ -48,7 +48,7 @@ export default function InviteForm({ roles, clientId, onSent }: { roles: Role[];
   }
 
   return (
-    <form onSubmit={submit} className="card space-y-4" noValidate>
+    <form method="post" onSubmit={submit} className="card space-y-4" noValidate>
       {sent && (
         <Alert tone="success" live>
           {sent}

@@ -35,7 +35,7 @@ export default function ForgotPasswordForm() {
     );
   }
   return (
-    <form onSubmit={submit} className="card space-y-5" noValidate>
+    <form method="post" onSubmit={submit} className="card space-y-5" noValidate>
       {error && (
         <Alert tone="danger" live>
           {error.message}

@@ -49,7 +49,7 @@ export default function NewPasswordForm({
   }
 
   return (
-    <form onSubmit={submit} className="card space-y-5" noValidate>
+    <form method="post" onSubmit={submit} className="card space-y-5" noValidate>
       {error && (
         <Alert tone="danger" live>
           {error.message}

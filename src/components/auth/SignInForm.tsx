@@ -1,19 +1,20 @@
 import { useState, type FormEvent } from 'react';
+import { safeNext } from '../../lib/ui/safe-next';
 import { api, ApiError } from '../api';
 import { Alert } from '../ui/Alert';
-import { Button } from '../ui/Button';
 import { TextField } from '../ui/Field';
 
 /** Only same-site paths are followed after sign-in, never another site. */
-function safeNext(next: string | null): string | null {
-  return next && next.startsWith('/') && !next.startsWith('//') ? next : null;
-}
 
-export default function SignInForm({ next }: { next: string | null }) {
-  const [email, setEmail] = useState('');
+/**
+ * Works before (and without) JavaScript too: the form then posts to the
+ * sign-in page itself, which signs in on the server.
+ */
+export default function SignInForm({ next, initialEmail = '', initialError = null }: { next: string | null; initialEmail?: string; initialError?: string | null }) {
+  const [email, setEmail] = useState(initialEmail);
   const [password, setPassword] = useState('');
   const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<ApiError | null>(null);
+  const [error, setError] = useState<ApiError | null>(initialError ? new ApiError(401, { code: 'bad_credentials', message: initialError }) : null);
 
   async function submit(e: FormEvent) {
     e.preventDefault();
@@ -29,7 +30,7 @@ export default function SignInForm({ next }: { next: string | null }) {
   }
 
   return (
-    <form onSubmit={submit} className="card space-y-5" noValidate>
+    <form method="post" action={next ? `/sign-in?next=${encodeURIComponent(next)}` : '/sign-in'} onSubmit={submit} className="card space-y-5" noValidate>
       {error && (
         <Alert tone="danger" title="Not signed in" live>
           {error.message}
@@ -38,9 +39,9 @@ export default function SignInForm({ next }: { next: string | null }) {
       <TextField label="E-mail" type="email" name="email" autoComplete="username" value={email} onChange={(e) => setEmail(e.target.value)} error={error?.field('email')} />
       <TextField label="Password" type="password" name="password" autoComplete="current-password" value={password} onChange={(e) => setPassword(e.target.value)} error={error?.field('password')} />
       <div className="flex flex-wrap items-center justify-between gap-3">
-        <Button type="submit" busy={busy}>
+        <button type="submit" className="btn btn-primary" disabled={busy} aria-busy={busy || undefined}>
           {busy ? 'Signing in…' : 'Sign in'}
-        </Button>
+        </button>
         <a href="/forgot-password" className="inline-flex min-h-12 items-center">
           Forgot your password?
         </a>

@@ -1,4 +1,5 @@
 import type { ButtonHTMLAttributes } from 'react';
+import { useHydrated } from '../useHydrated';
 
 type Variant = 'primary' | 'secondary' | 'quiet' | 'danger';
 
@@ -10,11 +11,12 @@ export function Button({
   disabled,
   ...rest
 }: ButtonHTMLAttributes<HTMLButtonElement> & { variant?: Variant; busy?: boolean }) {
+  const hydrated = useHydrated();
   return (
     <button
       type="button"
       className={`btn btn-${variant} ${className}`}
-      disabled={disabled || busy}
+      disabled={disabled || busy || !hydrated}
       aria-busy={busy || undefined}
       {...rest}
     >

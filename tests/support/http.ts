@@ -1,0 +1,52 @@
+import { randomInt } from 'node:crypto';
+import { baseUrl } from './browser';
+
+/**
+ * A small HTTP client for the running app that keeps its session cookie and,
+ * like a browser, sends Origin on state-changing requests. Each client claims
+ * its own forwarded address (the test server trusts X-Forwarded-For), so the
+ * per-address sign-in limit of one test never blocks another.
+ */
+export class Http {
+  cookie: string | null = null;
+  readonly address = `203.0.113.${randomInt(1, 255)}, 198.51.100.${randomInt(1, 255)}`;
+
+  constructor(readonly origin = baseUrl()) {}
+
+  async request(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Response> {
+    const h: Record<string, string> = { 'x-forwarded-for': this.address, ...headers };
+    if (this.cookie) h.cookie = this.cookie;
+    if (method !== 'GET' && method !== 'HEAD' && !('origin' in h)) h.origin = this.origin;
+    let payload: BodyInit | undefined;
+    if (body instanceof FormData || typeof body === 'string' || body instanceof Uint8Array) {
+      payload = body as BodyInit;
+    } else if (body !== undefined) {
+      h['content-type'] = 'application/json';
+      payload = JSON.stringify(body);
+    }
+    const res = await fetch(this.origin + path, { method, headers: h, body: payload, redirect: 'manual' });
+    const set = res.headers.getSetCookie().find((c) => c.startsWith('kinloop_session='));
+    if (set) {
+      const value = set.split(';')[0];
+      this.cookie = value === 'kinloop_session=' || /expires=Thu, 01 Jan 1970/i.test(set) ? null : value;
+    }
+    return res;
+  }
+
+  get = (path: string) => this.request('GET', path);
+  post = (path: string, body?: unknown) => this.request('POST', path, body ?? {});
+  put = (path: string, body?: unknown) => this.request('PUT', path, body ?? {});
+  patch = (path: string, body?: unknown) => this.request('PATCH', path, body ?? {});
+
+  async json<T = any>(method: string, path: string, body?: unknown): Promise<{ status: number; body: T }> {
+    const res = await this.request(method, path, body);
+    const text = await res.text();
+    return { status: res.status, body: text ? JSON.parse(text) : null };
+  }
+
+  async signIn(email: string, password: string): Promise<this> {
+    const res = await this.request('POST', '/api/auth/sign-in', { email, password });
+    if (res.status !== 200) throw new Error(`sign-in of ${email} failed: ${res.status} ${await res.text()}`);
+    return this;
+  }
+}
