@@ -21,13 +21,16 @@ import {
 
 const root = path.dirname(path.dirname(fileURLToPath(import.meta.url)));
 // Fixed test ports, away from `npm start`'s, so both can run at once.
+// KINLOOP_TEST_SLOT=N shifts ports and folders so that several test runs can share a machine.
+const slot = Number(process.env.KINLOOP_TEST_SLOT ?? 0);
+const suffix = slot ? `-${slot}` : '';
 const TEST_DEFAULTS = {
-  PORT: '4391',
-  KINLOOP_DATA_DIR: '.data-test',
-  KINLOOP_PG_PORT: '54339',
-  KINLOOP_S3_PORT: '4578',
-  KINLOOP_SMTP_PORT: '2535',
-  KINLOOP_BUILD_DIR: 'dist-test',
+  PORT: String(4391 + slot * 10),
+  KINLOOP_DATA_DIR: `.data-test${suffix}`,
+  KINLOOP_PG_PORT: String(54339 + slot * 10),
+  KINLOOP_S3_PORT: String(4578 + slot * 10),
+  KINLOOP_SMTP_PORT: String(2535 + slot * 10),
+  KINLOOP_BUILD_DIR: `dist-test${suffix}`,
   KINLOOP_DEMO_PASSWORD: 'kinloop-demo-2026',
 };
 

@@ -9,7 +9,7 @@ import { startBackgroundWork } from './lib/jobs/background';
 
 // The in-server worker starts with the first request's module load;
 // scripts/serve.mjs makes that request as soon as the server listens.
-if (config().runWorkerInServer) startBackgroundWork();
+if (config().runWorkerInServer) void startBackgroundWork();
 
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
 const PUBLIC_PAGES = [/^\/sign-in\/?$/, /^\/forgot-password\/?$/, /^\/reset\/[^/]+\/?$/, /^\/invite\/[^/]+\/?$/, /^\/unsubscribe\/[^/]+\/?$/];

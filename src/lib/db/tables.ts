@@ -132,3 +132,78 @@ export interface OutboxEmailRow {
   sent_at: Date | null;
   created_at: Date;
 }
+
+export type UploadStatus = 'queued' | 'accepted' | 'duplicate' | 'rejected';
+
+export interface UploadRow {
+  id: string;
+  client_id: string;
+  clinic_id: string;
+  uploaded_by: string;
+  original_name: string;
+  byte_size: string;
+  sha256: string;
+  storage_key: string;
+  status: UploadStatus;
+  error: { code: string; message: string; line?: number } | null;
+  warnings: string[];
+  duplicate_of_upload_id: string | null;
+  duplicate_of_ride_id: string | null;
+  ride_id: string | null;
+  import_profile_id: string | null;
+  fallback_started_at: Date | null;
+  uploaded_at: Date;
+  enqueued_at: Date | null;
+  processed_at: Date | null;
+  attempts: number;
+}
+
+export type StartedAtSource = 'file' | 'file_modified' | 'upload_time';
+
+export interface RideRow {
+  id: string;
+  client_id: string;
+  clinic_id: string;
+  upload_id: string;
+  device_id: string | null;
+  started_at: Date;
+  started_at_source: StartedAtSource;
+  duration_s: number;
+  active_s: number;
+  passive_s: number;
+  cooldown_s: number;
+  distance_m: number | null;
+  mean_power_w: number | null;
+  peak_power_5s_w: number | null;
+  work_kj: number | null;
+  mean_cadence_rpm: number | null;
+  current_per_watt_ma_per_w: number | null;
+  pulse_width_us: number | null;
+  frequency_hz: number | null;
+  samples: number;
+  channels: Record<string, { meanCurrentMa: number | null; maxCurrentMa: number | null }>;
+  warnings: string[];
+  created_at: Date;
+  updated_at: Date;
+}
+
+export interface ImportProfileRow {
+  id: string;
+  clinic_id: string;
+  name: string;
+  device_name: string | null;
+  mapping: import('../rides/types').ImportProfile;
+  created_by: string | null;
+  created_at: Date;
+  updated_at: Date;
+  archived_at: Date | null;
+}
+
+export interface DeviceRow {
+  id: string;
+  clinic_id: string;
+  serial: string;
+  name: string | null;
+  import_profile_id: string | null;
+  created_at: Date;
+}

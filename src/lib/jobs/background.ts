@@ -1,24 +1,43 @@
-import { deliverDueEmails } from '../mail/outbox';
 import { db } from '../db/knex';
+import { processUpload } from '../ingest/process';
+import { resendStaleUploads } from '../ingest/sweep';
+import { deliverDueEmails } from '../mail/outbox';
+import { QUEUES, queue } from './queue';
 
 const OUTBOX_POLL_MS = 2000;
+// Crash-recovery tests hold a job here to kill the worker while it is active.
+const PARSE_HOLD_MS = Number(process.env.KINLOOP_PARSE_HOLD_MS ?? 0);
+const SWEEP_MS = 60_000;
 
-let started = false;
+let started: Promise<void> | null = null;
 
-/**
- * Starts the background work of this process: the outbox delivery loop (and,
- * as later areas register them, the job queue's workers). Idempotent.
- */
-export function startBackgroundWork(): void {
-  if (started) return;
-  started = true;
+function every(ms: number, name: string, task: () => Promise<unknown>): void {
   const loop = async () => {
     try {
-      await deliverDueEmails(db());
+      await task();
     } catch (err) {
-      console.error('outbox delivery failed:', (err as Error).message);
+      console.error(`${name} failed:`, (err as Error).message);
     }
-    setTimeout(loop, OUTBOX_POLL_MS).unref();
+    setTimeout(loop, ms).unref();
   };
   void loop();
+}
+
+/**
+ * Starts this process's background work: the job queue's workers, the outbox
+ * delivery loop and the sweeper for uploads whose job message was lost.
+ * Runs inside the app server by default, or alone through `npm run worker`.
+ */
+export function startBackgroundWork(): Promise<void> {
+  started ??= (async () => {
+    const boss = await queue();
+    await boss.work<{ uploadId: string }>(QUEUES.parseRide, { batchSize: 1, pollingIntervalSeconds: 1 }, async ([job]) => {
+      if (PARSE_HOLD_MS) await new Promise((r) => setTimeout(r, PARSE_HOLD_MS));
+      await processUpload(db(), job.data.uploadId);
+    });
+    every(OUTBOX_POLL_MS, 'outbox delivery', () => deliverDueEmails(db()));
+    every(SWEEP_MS, 'upload sweep', () => resendStaleUploads(db()));
+  })();
+  started.catch((err) => console.error('background work did not start:', err));
+  return started;
 }

@@ -1,5 +1,27 @@
 import { randomUUID } from 'node:crypto';
+import { formFor, rideCsv, uploadAndWait } from '../../support/rides';
 import type { Role, World } from '../../support/world';
+
+/** One accepted ride of the world's client, uploaded by its carer; made once per run. */
+let ride: Promise<{ uploadId: string; sessionId: string }> | null = null;
+function carerRide(w: World) {
+  ride ??= w.as('carer').then(async (carer) => {
+    const [r] = await uploadAndWait(carer, w.clientId, [{ name: 'matrix.csv', content: rideCsv({ startedAt: '2026-03-02T09:00:00Z' }) }]);
+    if (r.status !== 'accepted') throw new Error(`matrix ride was ${r.status}`);
+    return { uploadId: r.uploadId, sessionId: r.sessionId! };
+  });
+  return ride;
+}
+
+async function profileOf(w: World): Promise<string> {
+  const [row] = await w.knex('import_profiles')
+    .insert({ clinic_id: w.clinicId, name: `p-${randomUUID().slice(0, 6)}`, mapping: JSON.stringify({ name: 'p', columns: { Zeit: { field: 'time' } } }) })
+    .returning('id');
+  return row.id;
+}
+const profileBody = { name: 'Matrix rig', columns: { Zeit: { field: 'time' }, Leistung: { field: 'power', unit: 'W' } } };
+const read = (ok: number): Record<Role, number> => ({ anonymous: 401, client: ok, carer: ok, therapist: ok, admin: ok, otherTherapist: 404 });
+const staffOfClinic = (ok: number): Record<Role, number> => ({ anonymous: 401, client: 404, carer: 404, therapist: 403, admin: ok, otherTherapist: 404 });
 
 /**
  * The expected status of every API route for every kind of caller. A route
@@ -58,4 +80,31 @@ export const MATRIX: Record<string, MatrixEntry> = {
   },
   'GET /api/audit': { request: () => ({ path: '/api/audit' }), expect: adminOnly(200) },
   'GET /api/dev/mailbox': { request: () => ({ path: '/api/dev/mailbox' }), expect: adminOnly(200) },
+
+  'POST /api/uploads': {
+    request: (w) => ({ path: '/api/uploads?wait=0', body: formFor(w.clientId, [{ name: 'm.csv', content: rideCsv({ startedAt: new Date(Date.UTC(2025, 0, 1) + Math.random() * 1e10).toISOString() }) }]) }),
+    expect: read(202),
+  },
+  'GET /api/uploads': { request: (w) => ({ path: `/api/uploads?clientId=${w.clientId}` }), expect: read(200) },
+  'GET /api/uploads/[id]': { request: async (w) => ({ path: `/api/uploads/${(await carerRide(w)).uploadId}` }), expect: read(200) },
+  'GET /api/uploads/[id]/raw': {
+    request: async (w) => ({ path: `/api/uploads/${(await carerRide(w)).uploadId}/raw` }),
+    expect: { anonymous: 401, client: 403, carer: 200, therapist: 200, admin: 200, otherTherapist: 404 },
+  },
+  'POST /api/uploads/[id]/reprocess': {
+    request: async (w) => ({ path: `/api/uploads/${(await carerRide(w)).uploadId}/reprocess` }),
+    expect: { anonymous: 401, client: 403, carer: 403, therapist: 202, admin: 202, otherTherapist: 404 },
+  },
+  'GET /api/clients/[id]/sessions': { request: (w) => ({ path: `/api/clients/${w.clientId}/sessions` }), expect: read(200) },
+  'GET /api/sessions/[id]': { request: async (w) => ({ path: `/api/sessions/${(await carerRide(w)).sessionId}?points=100` }), expect: read(200) },
+  'GET /api/import-profiles': { request: () => ({ path: '/api/import-profiles' }), expect: signedIn(200) },
+  'POST /api/import-profiles': { request: () => ({ path: '/api/import-profiles', body: profileBody }), expect: adminOnly(201) },
+  'PUT /api/import-profiles/[id]': { request: async (w) => ({ path: `/api/import-profiles/${await profileOf(w)}`, body: profileBody }), expect: staffOfClinic(200) },
+  'DELETE /api/import-profiles/[id]': { request: async (w) => ({ path: `/api/import-profiles/${await profileOf(w)}` }), expect: staffOfClinic(200) },
+  'POST /api/import-profiles/preview': {
+    request: () => ({ path: '/api/import-profiles/preview', body: { sampleBase64: Buffer.from(rideCsv({ minutes: 1 })).toString('base64') } }),
+    expect: adminOnly(200),
+  },
+  'GET /api/devices': { request: () => ({ path: '/api/devices' }), expect: { anonymous: 401, client: 403, carer: 403, therapist: 200, admin: 200, otherTherapist: 200 } },
+  'POST /api/devices': { request: () => ({ path: '/api/devices', body: { serial: `SN-${randomUUID().slice(0, 8)}` } }), expect: adminOnly(201) },
 };

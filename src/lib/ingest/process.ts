@@ -1,0 +1,131 @@
+// The parse job: turns a stored ride file into a session, or marks the upload
+// rejected with the parser's error. The file itself is never touched, so a
+// rejected upload can be parsed again later (after an import profile changed).
+import type { Knex } from 'knex';
+import type { ClientRow, DeviceRow, ImportProfileRow, RideRow, StartedAtSource, UploadRow } from '../db/tables';
+import { parseRide } from '../rides/parse';
+import { encodeSeries, SERIES_FORMAT } from '../rides/series-codec';
+import type { ImportProfile, ParsedRide } from '../rides/types';
+import { getObjectBytes } from '../storage/s3';
+import { notifyRidesChanged } from './ride-events';
+
+/** Two sessions of one client starting this close together are the same ride. */
+export const NEAR_DUPLICATE_MS = 2 * 60_000;
+
+export type ProcessOutcome = 'accepted' | 'duplicate' | 'rejected' | 'skipped';
+
+export async function processUpload(knex: Knex, uploadId: string): Promise<ProcessOutcome> {
+  const upload = await knex<UploadRow>('uploads').where({ id: uploadId }).first();
+  if (!upload || upload.status !== 'queued') return 'skipped';
+  await knex('uploads').where({ id: uploadId }).increment('attempts', 1);
+  const [client, bytes] = await Promise.all([
+    knex<ClientRow>('clients').where({ id: upload.client_id }).first(),
+    // A storage error here is transient: the job fails and the queue retries it.
+    getObjectBytes(upload.storage_key),
+  ]);
+  if (!client) throw new Error(`client ${upload.client_id} of upload ${uploadId} is missing`);
+
+  const chosen = upload.import_profile_id ? await profileById(knex, upload.import_profile_id) : null;
+  let parsed = parseRide(bytes, { profile: chosen?.mapping, timeZone: client.time_zone, metresPerRev: chosen?.mapping.metresPerRev });
+  let device: DeviceRow | null = null;
+  if (parsed.ok && parsed.metadata.deviceSerial) {
+    device = (await knex<DeviceRow>('devices').where({ clinic_id: upload.clinic_id, serial: parsed.metadata.deviceSerial }).first()) ?? null;
+    // A profile attached to the device applies when none was chosen at upload.
+    if (device?.import_profile_id && !chosen) {
+      const profile = await profileById(knex, device.import_profile_id);
+      if (profile) parsed = parseRide(bytes, { profile: profile.mapping, timeZone: client.time_zone, metresPerRev: profile.mapping.metresPerRev });
+    }
+  }
+
+  if (!parsed.ok) {
+    await knex.transaction(async (trx) => {
+      await trx('uploads').where({ id: uploadId }).update({ status: 'rejected', error: JSON.stringify(parsed.error), processed_at: trx.fn.now() });
+      if (upload.ride_id) await trx('rides').where({ id: upload.ride_id }).delete();
+    });
+    if (upload.ride_id) await notifyRidesChanged(knex, client.id);
+    return 'rejected';
+  }
+
+  const { startedAt, source, warning } = startTime(parsed, upload);
+  const warnings = warning ? [...parsed.summary.warnings, warning] : parsed.summary.warnings;
+  const outcome = await knex.transaction(async (trx) => {
+    // One client's files are placed one at a time, so two copies of a ride
+    // parsed at once cannot both become sessions.
+    await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`rides:${client.id}`]);
+    const near = await trx<RideRow>('rides')
+      .where({ client_id: client.id })
+      .whereNot({ upload_id: uploadId })
+      .whereBetween('started_at', [new Date(startedAt.getTime() - NEAR_DUPLICATE_MS), new Date(startedAt.getTime() + NEAR_DUPLICATE_MS)])
+      .orderBy('started_at')
+      .first('id');
+    if (near) {
+      await trx('uploads').where({ id: uploadId }).update({ status: 'duplicate', duplicate_of_ride_id: near.id, warnings: JSON.stringify(warnings), processed_at: trx.fn.now() });
+      if (upload.ride_id) await trx('rides').where({ id: upload.ride_id }).delete();
+      return 'duplicate' as const;
+    }
+    const rideId = await saveRide(trx, { upload, client, device, parsed, startedAt, source, warnings });
+    await trx('uploads').where({ id: uploadId }).update({ status: 'accepted', ride_id: rideId, error: null, warnings: JSON.stringify(warnings), processed_at: trx.fn.now() });
+    return 'accepted' as const;
+  });
+  await notifyRidesChanged(knex, client.id);
+  return outcome;
+}
+
+async function profileById(knex: Knex, id: string): Promise<(ImportProfileRow & { mapping: ImportProfile }) | null> {
+  return (await knex<ImportProfileRow>('import_profiles').where({ id }).whereNull('archived_at').first()) ?? null;
+}
+
+/** The session's start: from the file, else the file's last-modified time sent by the page, else the upload time. */
+function startTime(parsed: ParsedRide, upload: UploadRow): { startedAt: Date; source: StartedAtSource; warning: string | null } {
+  if (parsed.summary.startedAt) return { startedAt: new Date(parsed.summary.startedAt), source: 'file', warning: null };
+  if (upload.fallback_started_at) {
+    return { startedAt: upload.fallback_started_at, source: 'file_modified', warning: 'The file has no start time; the session date is the file’s last-modified time.' };
+  }
+  return { startedAt: upload.uploaded_at, source: 'upload_time', warning: 'The file has no start time; the session date is the time it was uploaded.' };
+}
+
+/** Writes the session and its series; a reprocessed upload replaces its own session in place. */
+async function saveRide(
+  trx: Knex.Transaction,
+  p: { upload: UploadRow; client: ClientRow; device: DeviceRow | null; parsed: ParsedRide; startedAt: Date; source: StartedAtSource; warnings: string[] },
+): Promise<string> {
+  const s = p.parsed.summary;
+  const columns = {
+    client_id: p.client.id,
+    clinic_id: p.client.clinic_id,
+    upload_id: p.upload.id,
+    device_id: p.device?.id ?? null,
+    started_at: p.startedAt,
+    started_at_source: p.source,
+    duration_s: s.durationS,
+    active_s: s.activeS,
+    passive_s: s.passiveS,
+    cooldown_s: s.cooldownS,
+    distance_m: s.distanceM,
+    mean_power_w: s.meanPowerW,
+    peak_power_5s_w: s.peakPower5sW,
+    work_kj: s.workKj,
+    mean_cadence_rpm: s.meanCadenceRpm,
+    current_per_watt_ma_per_w: s.currentPerWattMaPerW,
+    pulse_width_us: s.pulseWidthUs,
+    frequency_hz: s.frequencyHz,
+    samples: s.samples,
+    channels: JSON.stringify(s.channels),
+    warnings: JSON.stringify(p.warnings),
+  };
+  const existing = p.upload.ride_id ? await trx<RideRow>('rides').where({ id: p.upload.ride_id }).first('id') : undefined;
+  let rideId: string;
+  if (existing) {
+    await trx('rides').where({ id: existing.id }).update({ ...columns, updated_at: trx.fn.now() });
+    rideId = existing.id;
+  } else {
+    const [row] = await trx('rides').insert(columns).returning('id');
+    rideId = row.id;
+  }
+  const data = Buffer.from(encodeSeries(p.parsed.series));
+  await trx('ride_series')
+    .insert({ ride_id: rideId, format: SERIES_FORMAT, samples: s.samples, data })
+    .onConflict('ride_id')
+    .merge();
+  return rideId;
+}
