@@ -18,11 +18,6 @@ export function addDays(date: string, days: number): string {
   return parseLocalDate(date).plus({ days }).toISODate()!;
 }
 
-/** Whole days from `from` to `to` (negative when `to` is earlier). */
-export function daysBetween(from: string, to: string): number {
-  return Math.round(parseLocalDate(to).diff(parseLocalDate(from), 'days').days);
-}
-
 /** The instant (ISO, UTC) at which `date` begins in `timeZone`. */
 export function startOfLocalDay(date: string, timeZone: string): string {
   parseLocalDate(date);
