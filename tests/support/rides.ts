@@ -2,12 +2,12 @@ import { randomInt } from 'node:crypto';
 import type { Http } from './http';
 
 /** A small valid ride file; `startedAt` and a random power offset make each one distinct. */
-export function rideCsv({ startedAt = new Date().toISOString(), minutes = 2, powerW = 20 + randomInt(0, 1000) / 100 } = {}): string {
+export function rideCsv({ startedAt = new Date().toISOString(), minutes = 2, powerW = 20 + randomInt(0, 1000) / 100, currentMa = 60 } = {}): string {
   const lines = ['Kinloop test rig', `Start time: ${startedAt}`, '', 'time (s),phase,cadence (rpm),power (W),quad L (mA),quad R (mA)'];
   for (let t = 0; t < minutes * 60; t++) {
     const phase = t < 20 ? 'passive' : t >= minutes * 60 - 10 ? 'cooldown' : 'active';
     const on = phase === 'active';
-    lines.push(`${t},${phase},${on ? 42 : 30},${on ? powerW.toFixed(2) : '0.5'},${on ? 60 : 0},${on ? 62 : 0}`);
+    lines.push(`${t},${phase},${on ? 42 : 30},${on ? powerW.toFixed(2) : '0.5'},${on ? currentMa : 0},${on ? currentMa + 2 : 0}`);
   }
   return lines.join('\n') + '\n';
 }

@@ -1,5 +1,11 @@
 import knexFactory, { type Knex } from 'knex';
+import pg from 'pg';
 import { config } from '../config';
+
+// DATE columns hold local calendar dates (a client's program start, a pause's
+// days); read them as 'YYYY-MM-DD', never as a Date at the server's midnight.
+const DATE_OID = 1082;
+pg.types.setTypeParser(DATE_OID, (value: string) => value);
 
 let instance: Knex | null = null;
 

@@ -207,3 +207,74 @@ export interface DeviceRow {
   import_profile_id: string | null;
   created_at: Date;
 }
+
+export interface ChannelLimits {
+  maxCurrentMa?: number;
+  pulseWidthUs?: number;
+  frequencyHz?: number;
+}
+
+export interface PrescriptionRow {
+  id: string;
+  client_id: string;
+  version: number;
+  effective_from: string;
+  sessions_per_week: number;
+  minutes_per_session: number;
+  warmup_minutes: number | null;
+  target_cadence_rpm: number | null;
+  cadence_tolerance_rpm: number | null;
+  resistance: number | null;
+  channels: Record<string, ChannelLimits>;
+  notes: string | null;
+  created_by: string;
+  created_at: Date;
+}
+
+export interface PauseRow {
+  id: string;
+  client_id: string;
+  starts_on: string;
+  ends_on: string;
+  reason: string;
+  created_by: string;
+  created_at: Date;
+  ended_at: Date | null;
+  ended_by: string | null;
+  cancelled_at: Date | null;
+}
+
+export interface FlagRow {
+  id: string;
+  client_id: string;
+  clinic_id: string;
+  kind: import('../flags/types').FlagKind;
+  severity: import('../flags/types').FlagSeverity;
+  state: import('../flags/types').FlagState;
+  anchor: string;
+  reason: string;
+  evidence: unknown;
+  raised_at: Date;
+  updated_at: Date;
+  cleared_at: Date | null;
+  snoozed_until: string | null;
+  closed_at: Date | null;
+}
+
+export interface FlagEventRow {
+  id: string;
+  flag_id: string;
+  at: Date;
+  actor_user_id: string | null;
+  action: string;
+  note: string | null;
+  detail: Record<string, unknown>;
+}
+
+export interface ClientNoteRow {
+  id: string;
+  client_id: string;
+  author_id: string;
+  body: string;
+  created_at: Date;
+}

@@ -1,11 +1,11 @@
-import type { ZodType } from 'zod';
+import type { z, ZodTypeAny } from 'zod';
 import { config } from '../config';
 import { HttpError, badRequest } from './errors';
 
 const MAX_JSON_BYTES = 256 * 1024;
 
 /** Reads a JSON body and validates it with `schema`; a bad body is a 400 that says what is wrong. */
-export async function readJson<T>(request: Request, schema: ZodType<T>): Promise<T> {
+export async function readJson<S extends ZodTypeAny>(request: Request, schema: S): Promise<z.output<S>> {
   const type = request.headers.get('content-type') ?? '';
   if (!type.toLowerCase().includes('application/json')) {
     throw new HttpError(415, 'unsupported_media_type', 'Send the request body as JSON (Content-Type: application/json).');

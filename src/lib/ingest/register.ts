@@ -1,6 +1,6 @@
 import type { Knex } from 'knex';
 import type { UploadRow } from '../db/tables';
-import { QUEUES, queue } from '../jobs/queue';
+import { QUEUES, sendJob } from '../jobs/queue';
 import type { StoredFile } from './receive';
 
 export interface NewUpload extends StoredFile {
@@ -65,6 +65,5 @@ export async function registerUploads(
  */
 export async function enqueueParse(uploadIds: string[]): Promise<void> {
   if (!uploadIds.length) return;
-  const boss = await queue();
-  for (const uploadId of uploadIds) await boss.send(QUEUES.parseRide, { uploadId });
+  for (const uploadId of uploadIds) await sendJob(QUEUES.parseRide, { uploadId });
 }

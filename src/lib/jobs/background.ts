@@ -2,7 +2,8 @@ import { db } from '../db/knex';
 import { processUpload } from '../ingest/process';
 import { resendStaleUploads } from '../ingest/sweep';
 import { deliverDueEmails } from '../mail/outbox';
-import { QUEUES, queue } from './queue';
+import { registerFlagJobs } from '../supervision/flag-jobs';
+import { QUEUES, workQueue } from './queue';
 
 const OUTBOX_POLL_MS = 2000;
 // Crash-recovery tests hold a job here to kill the worker while it is active.
@@ -30,11 +31,11 @@ function every(ms: number, name: string, task: () => Promise<unknown>): void {
  */
 export function startBackgroundWork(): Promise<void> {
   started ??= (async () => {
-    const boss = await queue();
-    await boss.work<{ uploadId: string }>(QUEUES.parseRide, { batchSize: 1, pollingIntervalSeconds: 1 }, async ([job]) => {
+    await workQueue<{ uploadId: string }>(QUEUES.parseRide, async ({ uploadId }) => {
       if (PARSE_HOLD_MS) await new Promise((r) => setTimeout(r, PARSE_HOLD_MS));
-      await processUpload(db(), job.data.uploadId);
+      await processUpload(db(), uploadId);
     });
+    await registerFlagJobs();
     every(OUTBOX_POLL_MS, 'outbox delivery', () => deliverDueEmails(db()));
     every(SWEEP_MS, 'upload sweep', () => resendStaleUploads(db()));
   })();

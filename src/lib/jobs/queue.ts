@@ -5,10 +5,15 @@ import { config } from '../config';
 // stays in the database until a worker completes it.
 export const QUEUES = {
   parseRide: 'ride-parse',
+  evaluateFlags: 'flags-evaluate',
+  sweepFlags: 'flags-sweep',
 } as const;
 
 const QUEUE_OPTIONS: Record<string, Omit<PgBoss.Queue, 'name'>> = {
   [QUEUES.parseRide]: { retryLimit: 6, retryDelay: 5, retryBackoff: true, expireInSeconds: 300 },
+  // "stately": at most one waiting and one running evaluation per client.
+  [QUEUES.evaluateFlags]: { policy: 'stately', retryLimit: 5, retryDelay: 10, retryBackoff: true },
+  [QUEUES.sweepFlags]: { policy: 'short', retryLimit: 2 },
 };
 
 let boss: Promise<PgBoss> | null = null;
@@ -38,4 +43,31 @@ export async function stopQueue(): Promise<void> {
   const b = await boss;
   boss = null;
   await b.stop({ graceful: true, wait: true, timeout: 10_000 });
+}
+
+const localWorkers = new Map<string, string[]>();
+
+/**
+ * Works a queue in this process, one job at a time. pg-boss waits a polling
+ * interval after every fetch; waking the worker after each job (and when this
+ * process sends one) keeps a batch of files flowing without that pause.
+ */
+export async function workQueue<T extends object>(name: string, handler: (data: T) => Promise<void>): Promise<void> {
+  const boss = await queue();
+  let id = '';
+  id = await boss.work<T>(name, { batchSize: 1, pollingIntervalSeconds: 1 }, async ([job]) => {
+    try {
+      await handler(job.data);
+    } finally {
+      boss.notifyWorker(id);
+    }
+  });
+  localWorkers.set(name, [...(localWorkers.get(name) ?? []), id]);
+}
+
+export async function sendJob(name: string, data: object, options: PgBoss.SendOptions = {}): Promise<string | null> {
+  const boss = await queue();
+  const id = await boss.send(name, data, options);
+  if (!options.startAfter) for (const worker of localWorkers.get(name) ?? []) boss.notifyWorker(worker);
+  return id;
 }

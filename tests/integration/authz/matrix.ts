@@ -21,6 +21,8 @@ async function profileOf(w: World): Promise<string> {
 }
 const profileBody = { name: 'Matrix rig', columns: { Zeit: { field: 'time' }, Leistung: { field: 'power', unit: 'W' } } };
 const read = (ok: number): Record<Role, number> => ({ anonymous: 401, client: ok, carer: ok, therapist: ok, admin: ok, otherTherapist: 404 });
+const manage = (ok: number): Record<Role, number> => ({ anonymous: 401, client: 403, carer: 403, therapist: ok, admin: ok, otherTherapist: 404 });
+const staff = (ok: number): Record<Role, number> => ({ anonymous: 401, client: 403, carer: 403, therapist: ok, admin: ok, otherTherapist: ok });
 const staffOfClinic = (ok: number): Record<Role, number> => ({ anonymous: 401, client: 404, carer: 404, therapist: 403, admin: ok, otherTherapist: 404 });
 
 /**
@@ -105,6 +107,48 @@ export const MATRIX: Record<string, MatrixEntry> = {
     request: () => ({ path: '/api/import-profiles/preview', body: { sampleBase64: Buffer.from(rideCsv({ minutes: 1 })).toString('base64') } }),
     expect: adminOnly(200),
   },
+  'POST /api/clients': {
+    request: () => ({ path: '/api/clients', body: { name: `Matrix ${randomUUID().slice(0, 6)}`, timezone: 'Europe/London' } }),
+    expect: { anonymous: 401, client: 403, carer: 403, therapist: 201, admin: 201, otherTherapist: 201 },
+  },
+  'GET /api/clients/[id]/prescription': { request: (w) => ({ path: `/api/clients/${w.clientId}/prescription` }), expect: read(200) },
+  'PUT /api/clients/[id]/prescription': {
+    request: (w) => ({ path: `/api/clients/${w.clientId}/prescription`, body: { sessionsPerWeek: 3, minutesPerSession: 30, effectiveFrom: '2026-06-01' } }),
+    expect: manage(201),
+  },
+  'GET /api/clients/[id]/pauses': { request: (w) => ({ path: `/api/clients/${w.clientId}/pauses` }), expect: read(200) },
+  'POST /api/clients/[id]/pauses': {
+    request: (w) => ({ path: `/api/clients/${w.clientId}/pauses`, body: { from: '2030-01-01', to: '2030-01-07', reason: 'Holiday' } }),
+    expect: manage(201),
+  },
+  'POST /api/clients/[id]/pauses/[pauseId]/end': {
+    request: async (w) => {
+      const [p] = await w.knex('pauses').insert({ client_id: w.clientId, starts_on: '2031-01-01', ends_on: '2031-01-07', reason: 'x', created_by: w.users.therapist.id }).returning('id');
+      return { path: `/api/clients/${w.clientId}/pauses/${p.id}/end` };
+    },
+    expect: manage(200),
+  },
+  'GET /api/clients/[id]/adherence': { request: (w) => ({ path: `/api/clients/${w.clientId}/adherence?weeks=8` }), expect: read(200) },
+  'GET /api/clients/[id]/trends': { request: (w) => ({ path: `/api/clients/${w.clientId}/trends` }), expect: read(200) },
+  'GET /api/clients/[id]/notes': { request: (w) => ({ path: `/api/clients/${w.clientId}/notes` }), expect: manage(200) },
+  'POST /api/clients/[id]/notes': { request: (w) => ({ path: `/api/clients/${w.clientId}/notes`, body: { body: 'Reviewed the week.' } }), expect: manage(201) },
+  'GET /api/clients/[id]/flags': { request: (w) => ({ path: `/api/clients/${w.clientId}/flags` }), expect: manage(200) },
+  'POST /api/flags/[id]': {
+    request: async (w) => {
+      const [f] = await w.knex('flags')
+        .insert({ client_id: w.clientId, clinic_id: w.clinicId, kind: 'skin_concern', severity: 'review', anchor: randomUUID(), reason: 'Matrix', evidence: '{}', state: 'resolved' })
+        .returning('id');
+      // Resolved flags of the same kind may stack; a live one is made per call.
+      await w.knex('flags').where({ client_id: w.clientId, kind: 'bp_drop' }).whereIn('state', ['open', 'acknowledged']).update({ state: 'resolved' });
+      const [live] = await w.knex('flags').insert({ client_id: w.clientId, clinic_id: w.clinicId, kind: 'bp_drop', severity: 'review', anchor: f.id, reason: 'Matrix', evidence: '{}' }).returning('id');
+      return { path: `/api/flags/${live.id}`, body: { action: 'acknowledge', note: 'Seen' } };
+    },
+    expect: manage(200),
+  },
+  'GET /api/triage': { request: () => ({ path: '/api/triage' }), expect: staff(200) },
+  'GET /api/caseload': { request: () => ({ path: '/api/caseload' }), expect: staff(200) },
+  'GET /api/clinic/settings': { request: () => ({ path: '/api/clinic/settings' }), expect: staff(200) },
+  'PUT /api/clinic/settings': { request: () => ({ path: '/api/clinic/settings', body: {} }), expect: adminOnly(200) },
   'GET /api/devices': { request: () => ({ path: '/api/devices' }), expect: { anonymous: 401, client: 403, carer: 403, therapist: 200, admin: 200, otherTherapist: 200 } },
   'POST /api/devices': { request: () => ({ path: '/api/devices', body: { serial: `SN-${randomUUID().slice(0, 8)}` } }), expect: adminOnly(201) },
 };

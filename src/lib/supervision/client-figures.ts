@@ -1,0 +1,55 @@
+import { z } from 'zod';
+import { prescriptionTimeline, sessionStatus } from '../adherence';
+import { localDate } from '../time/iso-week';
+import { median } from '../analytics/median';
+import { accessClient } from '../auth/access';
+import type { RequestContext } from '../auth/context';
+import { loadHistory } from './history';
+import { overviewOf } from './overview';
+
+export const adherenceQuerySchema = z.object({ weeks: z.coerce.number().int().min(1).max(104).default(12) });
+
+export async function clientAdherence(ctx: RequestContext, clientId: string, weeks: number) {
+  const client = await accessClient(ctx, clientId, 'read', 'adherence.view');
+  const { adherence } = overviewOf(await loadHistory(ctx.knex, client), new Date(), weeks);
+  return {
+    weeks: adherence.weeks.map((w) => ({ isoWeek: w.isoWeek, prescribed: w.prescribed, counted: w.counted, short: w.short, met: w.met, paused: w.paused })),
+    streakWeeks: adherence.streakWeeks,
+    adherence4wPct: adherence.adherence4wPct,
+  };
+}
+
+/**
+ * Per-session points for the client page's charts: mean power with the usual
+ * level it is judged against (the median of the counted sessions before it,
+ * as the power_drop rule takes it) and the review band below it, duration
+ * against the prescribed minutes, and current per watt.
+ */
+export async function clientTrends(ctx: RequestContext, clientId: string) {
+  const client = await accessClient(ctx, clientId, 'read', 'trends.view');
+  const h = await loadHistory(ctx.knex, client);
+  const { overview } = overviewOf(h, new Date());
+  const t = h.thresholds;
+  const timeline = prescriptionTimeline(h.prescriptions);
+  const countedPower: number[] = [];
+  const points = h.sessions.map((s) => {
+    const target = timeline.versionOn(localDate(s.startedAt, h.client.time_zone));
+    const window = countedPower.slice(-t.baselineSessions);
+    const baseline = window.length >= t.baselineMinSessions ? median(window) : null;
+    const counted = sessionStatus(s.durationS, target, t.countThresholdPct) === 'counted';
+    if (counted && s.meanPowerW !== null) countedPower.push(s.meanPowerW);
+    return {
+      sessionId: s.id,
+      startedAt: s.startedAt,
+      meanPowerW: s.meanPowerW,
+      baselineW: baseline,
+      reviewBelowW: baseline === null ? null : baseline * (1 - t.powerDropReviewPct / 100),
+      durationS: s.durationS,
+      activeS: s.row.active_s,
+      targetS: target ? target.minutesPerSession * 60 : null,
+      counted,
+      currentPerWattMaPerW: s.currentPerWattMaPerW,
+    };
+  });
+  return { sessions: points, powerTrendWPerWeek: overview.powerTrendWPerWeek, thresholds: t };
+}

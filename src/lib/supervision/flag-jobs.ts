@@ -1,0 +1,35 @@
+import { DateTime } from 'luxon';
+import { db } from '../db/knex';
+import { onRidesChanged } from '../ingest/ride-events';
+import { QUEUES, queue, sendJob, workQueue } from '../jobs/queue';
+import { evaluateClientFlags } from './flag-store';
+
+
+// Files arrive in batches (a fortnight at once, in any order). Evaluating a
+// little after the last one, and never while the client still has files
+// waiting to be parsed, means a batch is judged once, as a whole.
+const DELAY_S = Number(process.env.KINLOOP_FLAG_DELAY_S ?? 10);
+
+export async function scheduleFlagEvaluation(clientId: string, delayS = DELAY_S): Promise<void> {
+  await sendJob(QUEUES.evaluateFlags, { clientId }, { singletonKey: clientId, ...(delayS ? { startAfter: delayS } : {}) });
+}
+
+export async function registerFlagJobs(): Promise<void> {
+  onRidesChanged((_knex, clientId) => scheduleFlagEvaluation(clientId));
+
+  await workQueue<{ clientId: string }>(QUEUES.evaluateFlags, async ({ clientId }) => {
+    const waiting = await db()('uploads').where({ client_id: clientId, status: 'queued' }).first('id');
+    if (waiting) return scheduleFlagEvaluation(clientId);
+    await evaluateClientFlags(db(), clientId);
+  });
+
+  // Every hour, the clients for whom it has just turned midnight: a finished
+  // day (no session for too long) and, on Mondays, a finished week.
+  await (await queue()).schedule(QUEUES.sweepFlags, '5 * * * *');
+  await workQueue(QUEUES.sweepFlags, async () => {
+    const clients = await db()('clients').whereNull('archived_at').select('id', 'time_zone');
+    for (const c of clients) {
+      if (DateTime.now().setZone(c.time_zone).hour === 0) await scheduleFlagEvaluation(c.id, 0);
+    }
+  });
+}

@@ -1,0 +1,59 @@
+import { DateTime } from 'luxon';
+import { z } from 'zod';
+import { accessClient } from '../auth/access';
+import { auditAs, type RequestContext } from '../auth/context';
+import type { PauseRow } from '../db/tables';
+import { badRequest, notFound } from '../http/errors';
+import { scheduleFlagEvaluation } from './flag-jobs';
+
+const date = (label: string) => z.string().regex(/^\d{4}-\d{2}-\d{2}$/, `${label}: use the form YYYY-MM-DD.`);
+export const pauseInputSchema = z
+  .object({ from: date('From'), to: date('To'), reason: z.string().trim().min(1, 'Reason: say why the program pauses (for example: hospital stay).').max(200) })
+  .strict()
+  .refine((p) => p.to >= p.from, { message: 'To: the pause must end on or after the day it starts.', path: ['to'] })
+  .refine((p) => DateTime.fromISO(p.to).diff(DateTime.fromISO(p.from), 'days').days <= 366, { message: 'To: a pause lasts at most a year; add another one after it if needed.', path: ['to'] });
+
+export function pauseState(p: PauseRow, today: string): 'cancelled' | 'upcoming' | 'active' | 'ended' {
+  if (p.cancelled_at) return 'cancelled';
+  if (p.starts_on > today) return 'upcoming';
+  return p.ends_on >= today ? 'active' : 'ended';
+}
+
+export function pauseView(p: PauseRow, today: string) {
+  return { id: p.id, from: p.starts_on, to: p.ends_on, reason: p.reason, state: pauseState(p, today), createdAt: p.created_at.toISOString(), endedAt: p.ended_at?.toISOString() ?? null };
+}
+
+export async function listPauses(ctx: RequestContext, clientId: string) {
+  const client = await accessClient(ctx, clientId, 'read', 'pauses.list');
+  const today = DateTime.now().setZone(client.time_zone).toISODate()!;
+  const rows = await ctx.knex<PauseRow>('pauses').where({ client_id: client.id }).orderBy('starts_on', 'desc');
+  return { pauses: rows.map((p) => pauseView(p, today)) };
+}
+
+export async function createPause(ctx: RequestContext, clientId: string, input: z.infer<typeof pauseInputSchema>) {
+  const client = await accessClient(ctx, clientId, 'manage', 'pause.create');
+  const [row] = await ctx.knex<PauseRow>('pauses').insert({ client_id: client.id, starts_on: input.from, ends_on: input.to, reason: input.reason, created_by: ctx.viewer.userId }).returning('*');
+  await auditAs(ctx, { action: 'pause.create', clinicId: client.clinic_id, clientId: client.id, recordType: 'pause', recordId: row.id, detail: { from: input.from, to: input.to } });
+  await scheduleFlagEvaluation(client.id, 0);
+  return pauseView(row, DateTime.now().setZone(client.time_zone).toISODate()!);
+}
+
+/**
+ * Ends a pause early: one under way ends yesterday (today counts again); one
+ * that has not begun is cancelled. Nothing is deleted.
+ */
+export async function endPause(ctx: RequestContext, clientId: string, pauseId: string) {
+  const client = await accessClient(ctx, clientId, 'manage', 'pause.end');
+  const row = z.string().uuid().safeParse(pauseId).success ? await ctx.knex<PauseRow>('pauses').where({ id: pauseId, client_id: client.id }).first() : undefined;
+  if (!row) throw notFound('That pause');
+  const today = DateTime.now().setZone(client.time_zone);
+  const state = pauseState(row, today.toISODate()!);
+  if (state === 'ended' || state === 'cancelled') throw badRequest('This pause is over already.');
+  const change = state === 'upcoming' || row.starts_on === today.toISODate()
+    ? { cancelled_at: ctx.knex.fn.now() }
+    : { ends_on: today.minus({ days: 1 }).toISODate()! };
+  const [updated] = await ctx.knex<PauseRow>('pauses').where({ id: row.id }).update({ ...change, ended_at: ctx.knex.fn.now(), ended_by: ctx.viewer.userId } as never).returning('*');
+  await auditAs(ctx, { action: 'pause.end', clinicId: client.clinic_id, clientId: client.id, recordType: 'pause', recordId: row.id });
+  await scheduleFlagEvaluation(client.id, 0);
+  return pauseView(updated, today.toISODate()!);
+}

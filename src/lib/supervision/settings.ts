@@ -1,0 +1,19 @@
+import { staffClinic } from '../auth/access';
+import { auditAs, type RequestContext } from '../auth/context';
+import { DEFAULT_FLAG_THRESHOLDS, flagThresholdsSchema, type FlagThresholds } from '../flags';
+import { scheduleFlagEvaluation } from './flag-jobs';
+
+export async function readClinicSettings(ctx: RequestContext, clinicId?: string) {
+  const id = staffClinic(ctx.viewer, ['admin', 'therapist'], clinicId);
+  const clinic = await ctx.knex('clinics').where({ id }).first('id', 'name', 'time_zone', 'flag_thresholds');
+  return { clinicId: clinic.id, name: clinic.name, timeZone: clinic.time_zone, flagThresholds: flagThresholdsSchema.parse(clinic.flag_thresholds), defaults: DEFAULT_FLAG_THRESHOLDS };
+}
+
+/** Changes the clinic's flag thresholds (admins); every client is judged again with them. */
+export async function saveClinicSettings(ctx: RequestContext, thresholds: FlagThresholds, clinicId?: string) {
+  const id = staffClinic(ctx.viewer, ['admin'], clinicId);
+  await ctx.knex('clinics').where({ id }).update({ flag_thresholds: JSON.stringify(thresholds) });
+  await auditAs(ctx, { action: 'clinic.settings_change', clinicId: id, detail: { flagThresholds: thresholds } });
+  for (const c of await ctx.knex('clients').where({ clinic_id: id }).whereNull('archived_at').select('id')) await scheduleFlagEvaluation(c.id, 0);
+  return readClinicSettings(ctx, id);
+}

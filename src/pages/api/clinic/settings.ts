@@ -1,0 +1,16 @@
+import type { APIRoute } from 'astro';
+import { signedIn } from '../../../lib/auth/context';
+import { flagThresholdsSchema } from '../../../lib/flags';
+import { readJson } from '../../../lib/http/request';
+import { handle, json } from '../../../lib/http/respond';
+import { readClinicSettings, saveClinicSettings } from '../../../lib/supervision/settings';
+
+export const GET: APIRoute = ({ url, locals }) =>
+  handle(async () => json(await readClinicSettings(signedIn(locals), url.searchParams.get('clinicId') ?? undefined)));
+
+export const PUT: APIRoute = ({ url, request, locals }) =>
+  handle(async () => {
+    const ctx = signedIn(locals);
+    const thresholds = await readJson(request, flagThresholdsSchema);
+    return json(await saveClinicSettings(ctx, thresholds, url.searchParams.get('clinicId') ?? undefined));
+  });
