@@ -3,6 +3,7 @@
 //   tsx scripts/db.ts seed           seed the demo scenario when the database has no clinic yet
 import { closeDb, db } from '../src/lib/db/knex';
 import { migrateLatest } from '../src/lib/db/migrate';
+import { stopQueue } from '../src/lib/jobs/queue';
 import { seedDemoIfEmpty } from '../src/lib/demo/seed';
 
 const tasks = process.argv.slice(2);
@@ -12,13 +13,19 @@ try {
       const applied = await migrateLatest(db());
       console.log(applied.length ? `migrations applied: ${applied.join(', ')}` : 'database schema is up to date');
     } else if (task === 'seed') {
+      const started = Date.now();
       const seeded = await seedDemoIfEmpty(db(), { password: process.env.KINLOOP_DEMO_PASSWORD ?? 'kinloop-demo-2026' });
-      console.log(seeded ? 'demo scenario seeded' : 'database already has data: demo seed skipped');
+      console.log(
+        seeded
+          ? `demo scenario seeded: ${Object.keys(seeded.clients).length} clients, ${seeded.files} ride files through the ingest path, ${seeded.flags} flags (${((Date.now() - started) / 1000).toFixed(1)} s)`
+          : 'database already has data: demo seed skipped',
+      );
     } else {
       console.error(`unknown task ${task}; use migrate or seed`);
       process.exitCode = 64;
     }
   }
 } finally {
+  await stopQueue();
   await closeDb();
 }

@@ -2,6 +2,7 @@ import type { Knex } from 'knex';
 import { DateTime } from 'luxon';
 import { hashPassword } from '../auth/password';
 import { DEMO_CARERS, DEMO_CLIENTS, DEMO_CLINIC, DEMO_STAFF } from './scenario';
+import { seedDemoRides } from './seed-rides';
 
 export interface SeedOptions {
   password: string;
@@ -15,11 +16,13 @@ export interface SeededIds {
   clients: Record<string, string>;
 }
 
-/** Seeds the demo scenario into an empty database; returns null when it already has a clinic. */
-export async function seedDemoIfEmpty(knex: Knex, options: SeedOptions): Promise<SeededIds | null> {
+/** Seeds the demo scenario (people, then six months of rides) into an empty database; null when it already has a clinic. */
+export async function seedDemoIfEmpty(knex: Knex, options: SeedOptions): Promise<(SeededIds & { files: number; flags: number }) | null> {
   const existing = await knex('clinics').first('id');
   if (existing) return null;
-  return seedDemoPeople(knex, options);
+  const now = options.now ?? new Date();
+  const ids = await seedDemoPeople(knex, { ...options, now });
+  return { ...ids, ...(await seedDemoRides(knex, ids, now)) };
 }
 
 export async function seedDemoPeople(knex: Knex, { password, now = new Date() }: SeedOptions): Promise<SeededIds> {
