@@ -11,9 +11,9 @@ export function lineBreakOf(text: string): '\n' | '\r' {
   return text.includes('\n') || !text.includes('\r') ? '\n' : '\r';
 }
 
-// Without quotes, splitting at "\n" also reads CRLF and mixed files: the CR
-// left on the last cell is whitespace to Number() and trimmed elsewhere. With
-// quotes the parser must see the real line break so that "…"\r\n closes a field.
+// Without quotes, splitting at "\n" reads CRLF and mixed files alike (the CR
+// left on each row's last cell is cut off afterwards). With quotes the parser
+// must see the real line break so that "…"\r\n closes a field.
 function papaNewline(text: string, lineBreak: '\n' | '\r'): '\n' | '\r' | '\r\n' {
   if (lineBreak === '\r' || !text.includes('"')) return lineBreak;
   const i = text.indexOf('\n');
@@ -31,6 +31,12 @@ export function tokenise(text: string, delimiter: Delimiter, lineBreak: '\n' | '
   }).data;
   const last = rows[rows.length - 1];
   if (last !== undefined && last.length === 1 && last[0] === '') rows.pop();
+  if (lineBreak === '\n' && text.includes('\r')) {
+    for (const row of rows) {
+      const end = row.length - 1;
+      if (row[end].endsWith('\r')) row[end] = row[end].slice(0, -1);
+    }
+  }
   return rows;
 }
 

@@ -9,8 +9,10 @@ export const TIME_TOLERANCE_S = 1e-6;
 
 /** The median of the finite values (mean of the middle two for an even count); NaN when there are none. */
 export function median(values: ArrayLike<number>): number {
-  const sorted = Float64Array.from(values).filter((v) => Number.isFinite(v)).sort();
-  const n = sorted.length;
+  const finite = new Float64Array(values.length);
+  let n = 0;
+  for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i])) finite[n++] = values[i];
+  const sorted = finite.subarray(0, n).sort();
   if (n === 0) return NaN;
   const mid = n >> 1;
   return n % 2 === 1 ? sorted[mid] : (sorted[mid - 1] + sorted[mid]) / 2;

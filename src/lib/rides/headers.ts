@@ -9,6 +9,8 @@ export interface ColumnReading {
   header: string;
   field: CanonicalField | null;
   unit: Unit | null;
+  /** Whether the header (or the import profile) states the unit; otherwise the field's default applies. */
+  unitGiven: boolean;
   /** Set when the header names a field but the column cannot be used (unknown unit, second column for a field). */
   problem: string | null;
 }
@@ -24,6 +26,7 @@ export const MEASUREMENT_QUANTITIES: ReadonlySet<Quantity> = new Set<Quantity>([
 ]);
 
 const CHANNELS: ReadonlySet<string> = new Set<string>([...NAMED_CHANNELS, ...NUMBERED_CHANNELS]);
+const FIELDS: ReadonlySet<string> = new Set<string>(['time', 'phase', 'cadence', 'power', 'distance', 'pulse_width', 'frequency', 'heart_rate', ...CHANNELS]);
 
 export function quantityOf(field: CanonicalField): Quantity | null {
   if (field === 'phase') return null;
@@ -49,21 +52,15 @@ const FIELD_WORDS: [Exclude<CanonicalField, ChannelName>, Set<string>][] = [
   ['heart_rate', words('heartrate', 'hr')],
 ];
 
-const MUSCLES: Record<string, 'quadriceps' | 'hamstrings' | 'gluteals'> = {
-  quad: 'quadriceps',
-  quads: 'quadriceps',
-  quadriceps: 'quadriceps',
-  ham: 'hamstrings',
-  hams: 'hamstrings',
-  hamstring: 'hamstrings',
-  hamstrings: 'hamstrings',
-  glute: 'gluteals',
-  glutes: 'gluteals',
-  gluteal: 'gluteals',
-  gluteals: 'gluteals',
-  gluteus: 'gluteals',
-};
-const SIDES: Record<string, 'left' | 'right'> = { l: 'left', left: 'left', lt: 'left', r: 'right', right: 'right', rt: 'right' };
+const MUSCLES = new Map<string, string>([
+  ...['quad', 'quads', 'quadriceps'].map((w): [string, string] => [w, 'quadriceps']),
+  ...['ham', 'hams', 'hamstring', 'hamstrings'].map((w): [string, string] => [w, 'hamstrings']),
+  ...['glute', 'glutes', 'gluteal', 'gluteals', 'gluteus'].map((w): [string, string] => [w, 'gluteals']),
+]);
+const SIDES = new Map<string, string>([
+  ...['l', 'left', 'lt'].map((w): [string, string] => [w, 'left']),
+  ...['r', 'right', 'rt'].map((w): [string, string] => [w, 'right']),
+]);
 const CHANNEL_EXTRAS = words('current', 'stim', 'amplitude');
 const CHANNEL_PREFIXES = words('ch', 'channel');
 // A time header may carry the value format instead of a unit, e.g. "Time (mm:ss)".
@@ -79,12 +76,12 @@ function channelOf(ws: string[]): ChannelName | null {
   let muscle: string | null = null;
   let side: string | null = null;
   for (const w of ws) {
-    if (w in MUSCLES) {
+    if (MUSCLES.has(w)) {
       if (muscle !== null) return null;
-      muscle = MUSCLES[w];
-    } else if (w in SIDES) {
+      muscle = MUSCLES.get(w)!;
+    } else if (SIDES.has(w)) {
       if (side !== null) return null;
-      side = SIDES[w];
+      side = SIDES.get(w)!;
     } else if (!CHANNEL_EXTRAS.has(w)) {
       return null;
     }
@@ -154,34 +151,43 @@ const bpmField = (unitText: string): CanonicalField | null => (unitKey(unitText)
 
 function withUnit(header: string, field: CanonicalField, unitText: string | null): ColumnReading {
   const q = quantityOf(field);
-  if (q === null) return { header, field, unit: null, problem: null };
-  if (unitText === null || unitText === '') return { header, field, unit: defaultUnit(q), problem: null };
+  if (q === null) return { header, field, unit: null, unitGiven: false, problem: null };
+  if (unitText === null || unitText === '') return { header, field, unit: defaultUnit(q), unitGiven: false, problem: null };
   const u = findUnit(q, unitText);
-  if (u !== null) return { header, field, unit: u, problem: null };
-  if (q === 'time' && TIME_FORMAT_WORDS.has(headerKey(unitText))) return { header, field, unit: defaultUnit(q), problem: null };
-  return { header, field: null, unit: null, problem: `unit "${unitText}" is not one Kinloop reads for ${describeField(field)}` };
+  if (u !== null) return { header, field, unit: u, unitGiven: true, problem: null };
+  if (q === 'time' && TIME_FORMAT_WORDS.has(headerKey(unitText))) return { header, field, unit: defaultUnit(q), unitGiven: true, problem: null };
+  return { header, field: null, unit: null, unitGiven: false, problem: `its unit "${unitText}" is not one Kinloop reads for ${describeField(field)}` };
 }
 
+// Profiles are stored settings edited by people: entries that are not well-formed are skipped.
 function fromProfile(header: string, profile: ImportProfile | undefined): ColumnReading | null {
-  if (!profile) return null;
+  if (!profile?.columns || typeof profile.columns !== 'object') return null;
   const full = headerKey(header);
   const { name, unitText } = splitBracketUnit(header);
   const bare = headerKey(name);
   for (const [key, spec] of Object.entries(profile.columns)) {
     const k = headerKey(key);
-    if (k === '' || (k !== full && k !== bare)) continue;
-    return withUnit(header, spec.field, spec.unit ?? (k === full ? null : unitText));
+    if (k === '' || (k !== full && k !== bare) || typeof spec?.field !== 'string') continue;
+    if (!FIELDS.has(spec.field)) {
+      return { header, field: null, unit: null, unitGiven: false, problem: `the import profile maps it to "${spec.field}", which is not a Kinloop field` };
+    }
+    const unit = typeof spec.unit === 'string' ? spec.unit : null;
+    return withUnit(header, spec.field, unit ?? (k === full ? null : unitText));
   }
   return null;
 }
 
+// Longer cells are text, not column names; the limit also keeps the pattern matching below cheap.
+const MAX_HEADER_LENGTH = 200;
+
 /** How one header cell is read: the import profile first, then the built-in table. */
 export function readHeaderCell(raw: string, profile?: ImportProfile): ColumnReading {
   const header = raw.trim();
+  if (header.length > MAX_HEADER_LENGTH) return { header, field: null, unit: null, unitGiven: false, problem: null };
   const mapped = fromProfile(header, profile);
   if (mapped !== null) return mapped;
   const { field, unitText } = nameHeader(header.normalize('NFKC'));
-  if (field === null) return { header, field: null, unit: null, problem: null };
+  if (field === null) return { header, field: null, unit: null, unitGiven: false, problem: null };
   return withUnit(header, field, unitText);
 }
 
@@ -193,7 +199,7 @@ export function readHeaderRow(cells: string[], profile?: ImportProfile): ColumnR
     if (r.field === null) return r;
     const first = taken.get(r.field);
     if (first !== undefined) {
-      return { ...r, field: null, unit: null, problem: `it also reads as ${describeField(r.field)}; only the first such column ("${first}") is used` };
+      return { ...r, field: null, unit: null, unitGiven: false, problem: `it also reads as ${describeField(r.field)}; only the first such column ("${first}") is used` };
     }
     taken.set(r.field, r.header);
     return r;

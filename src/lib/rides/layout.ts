@@ -8,6 +8,8 @@ import type { ImportProfile } from './types';
 
 /** Lines searched for the header row; a longer preamble is not a ride file. */
 export const HEADER_SEARCH_LINES = 1000;
+/** Longer lines are not taken for a header row (a real one with 100 columns has a few kB). */
+export const MAX_HEADER_LINE_LENGTH = 65536;
 
 export interface PreambleLine {
   line: number;
@@ -73,7 +75,7 @@ export function findLayout(text: string, profile?: ImportProfile): { ok: true; l
     if (lineBreak === '\n' && content.endsWith('\r')) content = content.slice(0, -1);
     const next = stop + 1;
     if (content.trim() !== '') {
-      const c = readRow(content, profile);
+      const c = content.length > MAX_HEADER_LINE_LENGTH ? null : readRow(content, profile);
       if (c !== null && c.hasTime && c.measurements > 0) {
         return {
           ok: true,
@@ -102,4 +104,15 @@ export function usesDecimalComma(data: string, delimiter: Delimiter): boolean {
     if (before >= 48 && before <= 57 && after >= 48 && after <= 57) return true;
   }
   return false;
+}
+
+/**
+ * The text with every comma turned into a point. V8's replaceAll is slow with
+ * ~10^5 matches; the same swap on UTF-8 bytes (where 0x2C is always a comma)
+ * takes a tenth of the time.
+ */
+export function commasToPoints(text: string): string {
+  const bytes = new TextEncoder().encode(text);
+  for (let i = 0; i < bytes.length; i++) if (bytes[i] === 0x2c) bytes[i] = 0x2e;
+  return new TextDecoder().decode(bytes);
 }

@@ -51,7 +51,8 @@ export function roundTo(value: number, decimals: number): number {
   return r === 0 ? 0 : r;
 }
 
-const roundOrNull = (value: number | null, decimals: number) => (value === null ? null : roundTo(value, decimals));
+// A distance column of astronomically large values can overflow last − first.
+const roundOrNull = (value: number | null, decimals: number) => (value === null || !Number.isFinite(value) ? null : roundTo(value, decimals));
 
 export interface SummariseOptions {
   /** Metres per crank revolution for distance from cadence; default 2.0. */
@@ -102,6 +103,8 @@ function peakPower(t: Float64Array, power: Float64Array, d: Float64Array, active
     energy[k + 1] = energy[k] + (counts ? power[k] * d[k] : 0);
   }
   let best = -Infinity;
+  let bestStart = -1;
+  let bestStop = -1;
   let j = 0;
   for (let i = 0; i < n; i++) {
     if (active[i] !== 1) continue;
@@ -111,10 +114,24 @@ function peakPower(t: Float64Array, power: Float64Array, d: Float64Array, active
     const w = weight[j] - weight[i];
     if (w >= PEAK_WINDOW_S - TIME_TOLERANCE_S) {
       const mean = (energy[j] - energy[i]) / w;
-      if (mean > best) best = mean;
+      if (mean > best) {
+        best = mean;
+        bestStart = i;
+        bestStop = j;
+      }
     }
   }
-  return best === -Infinity ? null : best;
+  if (bestStart < 0) return null;
+  // Differences of long prefix sums carry rounding noise; the winning window is summed again directly.
+  let sum = 0;
+  let w = 0;
+  for (let k = bestStart; k < bestStop; k++) {
+    if (active[k] === 1 && power[k] === power[k]) {
+      sum += power[k] * d[k];
+      w += d[k];
+    }
+  }
+  return sum / w;
 }
 
 function work(power: Float64Array, d: Float64Array): number | null {

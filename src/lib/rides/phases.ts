@@ -5,22 +5,22 @@
 import type { Phase } from './types';
 import { RowTally } from './warnings';
 
-const PHASE_WORDS: Record<string, Phase> = {
-  passive: 'passive',
-  warmup: 'passive',
-  active: 'active',
-  stim: 'active',
-  stimulation: 'active',
-  fes: 'active',
-  cooldown: 'cooldown',
-  recovery: 'cooldown',
-};
+const PHASE_WORDS = new Map<string, Phase>([
+  ['passive', 'passive'],
+  ['warmup', 'passive'],
+  ['active', 'active'],
+  ['stim', 'active'],
+  ['stimulation', 'active'],
+  ['fes', 'active'],
+  ['cooldown', 'cooldown'],
+  ['recovery', 'cooldown'],
+]);
 
 /** The phase a cell names ("Warm-up" → passive), undefined for a blank cell, null for an unknown word. */
 export function phaseOfWord(cell: string | undefined): Phase | null | undefined {
   const key = (cell ?? '').toLowerCase().replace(/[^\p{L}]+/gu, '');
   if (key === '') return undefined;
-  return PHASE_WORDS[key] ?? null;
+  return PHASE_WORDS.get(key) ?? null;
 }
 
 // The warning quotes a few of the unknown words, not all of them.

@@ -3,7 +3,7 @@
 // readers scan character codes so that a long column of timestamps costs no
 // regular expression per cell.
 
-import { DateTime } from 'luxon';
+import { DateTime, IANAZone } from 'luxon';
 
 export type TimeFormat = 'seconds' | 'milliseconds' | 'clock' | 'iso';
 
@@ -175,6 +175,8 @@ export function isoHasOffset(s: string): boolean {
 
 /** Epoch ms of a wall time (given as if it were UTC) in an IANA time zone; null for an unknown zone. */
 export function wallTimeToEpochMs(wallMs: number, timeZone: string): number | null {
+  // Only IANA names: luxon would also take "local" or "system", the zone of whatever machine runs this.
+  if (!IANAZone.isValidZone(timeZone)) return null;
   const whole = Math.floor(wallMs);
   const d = new Date(whole);
   const dt = DateTime.fromObject(
@@ -187,7 +189,7 @@ export function wallTimeToEpochMs(wallMs: number, timeZone: string): number | nu
       second: d.getUTCSeconds(),
       millisecond: d.getUTCMilliseconds(),
     },
-    { zone: timeZone },
+    { zone: IANAZone.create(timeZone) },
   );
   return dt.isValid ? dt.toMillis() + (wallMs - whole) : null;
 }

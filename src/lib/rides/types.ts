@@ -124,4 +124,9 @@ export interface ParseOptions {
   metresPerRev?: number;
   /** Byte limit; larger input is refused with `too_large`. Default 25 MB. */
   maxBytes?: number;
+  /**
+   * IANA time zone (e.g. "Europe/Berlin") for date-times written without a UTC
+   * offset, usually the client's. Without it such times are read as UTC, with a warning.
+   */
+  timeZone?: string;
 }

@@ -1,0 +1,274 @@
+// parseRide: ride-file bytes → canonical series and summary, or a refusal.
+// One decode, one papaparse call over the data rows, one pass per column.
+
+import { readNumericColumn, readTimeColumn } from './columns';
+import { tokenise } from './csv';
+import { decodeBytes, looksLikeText } from './decode';
+import { median, PAUSE_S } from './deltas';
+import { describeField, quantityOf, type ColumnReading } from './headers';
+import { commasToPoints, findLayout, usesDecimalComma } from './layout';
+import { deviceOf, readPreamble, startOf } from './metadata';
+import { DEFAULT_METRES_PER_REV, summarise } from './metrics';
+import { orderRows, pick, type RowOrder } from './order';
+import { phasesFromColumn, phasesFromCurrent } from './phases';
+import { dropImplausible } from './plausibility';
+import { refusals } from './refusals';
+import { isoHasOffset, timeDivisor, toIsoUtc, wallTimeToEpochMs, type TimeFormat } from './time';
+import type { CanonicalField, ChannelName, ParsedRide, ParseOptions, Phase, RideRefusal, RideSeries } from './types';
+import type { Quantity, Unit } from './units';
+import { counted, linesOf } from './warnings';
+
+export const DEFAULT_MAX_BYTES = 25 * 1024 * 1024;
+
+const PROFILE_TIME_FORMATS = new Map<string, TimeFormat>([
+  ['seconds', 'seconds'],
+  ['milliseconds', 'milliseconds'],
+  ['clock', 'clock'],
+  ['iso', 'iso'],
+]);
+
+const SERIES_KEYS: Partial<Record<CanonicalField, 'cadenceRpm' | 'powerW' | 'distanceM' | 'heartRateBpm' | 'pulseWidthUs' | 'frequencyHz'>> = {
+  cadence: 'cadenceRpm',
+  power: 'powerW',
+  distance: 'distanceM',
+  heart_rate: 'heartRateBpm',
+  pulse_width: 'pulseWidthUs',
+  frequency: 'frequencyHz',
+};
+
+const positive = (v: number | undefined) => (typeof v === 'number' && Number.isFinite(v) && v > 0 ? v : undefined);
+
+/** File line of each data row: consecutive lines unless quoted cells hold line breaks. */
+function lineMapper(rows: string[][], firstLine: number, data: string, lineBreak: string): LineOf {
+  if (!data.includes('"')) return (row) => firstLine + row;
+  const lines = new Int32Array(rows.length);
+  let line = firstLine;
+  for (let r = 0; r < rows.length; r++) {
+    lines[r] = line;
+    line++;
+    for (const cell of rows[r]) for (let i = cell.indexOf(lineBreak); i >= 0; i = cell.indexOf(lineBreak, i + 1)) line++;
+  }
+  return (row) => lines[row];
+}
+
+interface Measured {
+  field: CanonicalField;
+  quantity: Quantity;
+  values: Float64Array;
+}
+
+type LineOf = (row: number) => number;
+
+interface Timeline {
+  order: RowOrder;
+  format: TimeFormat;
+  /** Raw time of the first sample, in the format's unit (epoch ms for ISO). */
+  raw0: number;
+  t: Float64Array;
+  /** Raw time per data row (NaN where unreadable), for the numeric columns to skip those rows. */
+  raw: Float64Array;
+}
+
+/** Time column → samples in time order with t in seconds from the first; null when no row has a time. */
+function readTimeline(rows: string[][], timeIndex: number, reading: ColumnReading, profileFormat: TimeFormat | null, lineOf: LineOf, warnings: string[]): Timeline | null {
+  const time = readTimeColumn(rows, timeIndex, profileFormat, reading.unit?.divide === 1000);
+  if (time.unreadable.count > 0) {
+    warnings.push(`${counted(time.unreadable.count, 'row without a readable time', 'rows without a readable time')} skipped ${linesOf(time.unreadable, lineOf)}`);
+  }
+  if (time.rollover >= 0) {
+    warnings.push(`The time of day passes midnight on line ${lineOf(time.rollover)}; the times from there on were counted on the next day.`);
+  }
+  const order = orderRows(time.raw);
+  const { keep } = order;
+  const n = keep.length;
+  if (n === 0) return null;
+
+  let format = time.format as TimeFormat;
+  if (format === 'seconds' && !reading.unitGiven && profileFormat === null && n > 1) {
+    const steps = new Float64Array(n - 1);
+    for (let k = 0; k < n - 1; k++) steps[k] = time.raw[keep[k + 1]] - time.raw[keep[k]];
+    const step = median(steps);
+    if (step > PAUSE_S) {
+      format = 'milliseconds';
+      warnings.push(
+        `The time column "${reading.header}" states no unit and its median step of ${step} would make every step a pause if read as seconds; it was read as milliseconds.`,
+      );
+    }
+  }
+  if (order.firstOutOfOrder >= 0) {
+    warnings.push(`The rows were not in time order (the first out of order is on line ${lineOf(order.firstOutOfOrder)}); they were sorted by time.`);
+  }
+  if (order.duplicates.count > 0) {
+    warnings.push(
+      `${counted(order.duplicates.count, 'row with the same time as the row before it', 'rows with the same time as the row before them')} dropped ${linesOf(order.duplicates, lineOf)}`,
+    );
+  }
+
+  const raw0 = time.raw[keep[0]];
+  const divisor = timeDivisor(format);
+  const t = new Float64Array(n);
+  for (let k = 0; k < n; k++) t[k] = divisor === 1 ? time.raw[keep[k]] - raw0 : (time.raw[keep[k]] - raw0) / divisor;
+  return { order, format, raw0, t, raw: time.raw };
+}
+
+/** Numeric columns in sample order, implausible values dropped; warnings for non-numbers, then for drops. */
+function readMeasurements(rows: string[][], readings: ColumnReading[], timeline: Timeline, lineOf: LineOf, warnings: string[]): Measured[] {
+  const measured: Measured[] = [];
+  const drops: string[] = [];
+  readings.forEach((r, index) => {
+    if (r.field === null || r.field === 'time' || r.field === 'phase') return;
+    const quantity = quantityOf(r.field) as Quantity;
+    const column = readNumericColumn(rows, index, r.unit as Unit, timeline.raw);
+    const label = describeField(r.field);
+    if (column.nonNumeric.count > 0) {
+      warnings.push(
+        `${counted(column.nonNumeric.count, `${label} value that is not a number`, `${label} values that are not numbers`)} ignored ${linesOf(column.nonNumeric, lineOf)}`,
+      );
+    }
+    const values = pick(column.values, timeline.order);
+    drops.push(...dropImplausible(values, quantity, label, timeline.order.keep, lineOf));
+    measured.push({ field: r.field, quantity, values });
+  });
+  warnings.push(...drops);
+  return measured;
+}
+
+function metresPerRevOf(options: ParseOptions, warnings: string[]): number {
+  const asked = options.metresPerRev ?? options.profile?.metresPerRev;
+  if (asked === undefined || positive(asked) !== undefined) return asked ?? DEFAULT_METRES_PER_REV;
+  warnings.push(`Metres per revolution "${asked}" is not a positive number; ${DEFAULT_METRES_PER_REV} m was used.`);
+  return DEFAULT_METRES_PER_REV;
+}
+
+export function parseRide(bytes: Uint8Array, options: ParseOptions = {}): ParsedRide | RideRefusal {
+  const maxBytes = positive(options.maxBytes) ?? DEFAULT_MAX_BYTES;
+  if (bytes.length > maxBytes) return refusals.tooLarge(bytes.length, maxBytes);
+  if (bytes.length === 0) return refusals.empty();
+  const { text, encoding } = decodeBytes(bytes);
+  if (!/\S/.test(text)) return refusals.empty();
+  if (!looksLikeText(text)) return refusals.notText();
+
+  const found = findLayout(text, options.profile);
+  if (!found.ok) return refusals.fromLayout(found.problem);
+  const layout = found.layout;
+  const { headerLine, readings, delimiter } = layout;
+  const warnings: string[] = [];
+  for (const r of readings) {
+    if (r.problem !== null) warnings.push(`Column "${r.header}" (line ${headerLine}) was ignored: ${r.problem}.`);
+  }
+
+  let data = text.slice(layout.dataOffset);
+  const decimalComma = usesDecimalComma(data, delimiter);
+  if (decimalComma) data = commasToPoints(data);
+  const rows = tokenise(data, delimiter, layout.lineBreak);
+  const lineOf = lineMapper(rows, headerLine + 1, data, layout.lineBreak);
+
+  const timeIndex = readings.findIndex((r) => r.field === 'time');
+  const profileFormat = PROFILE_TIME_FORMATS.get(String(options.profile?.timeFormat)) ?? null;
+  const timeline = readTimeline(rows, timeIndex, readings[timeIndex], profileFormat, lineOf, warnings);
+  if (timeline === null) return refusals.noDataRows(headerLine, rows.some((row) => !(row.length === 1 && row[0].trim() === '')));
+  const { keep } = timeline.order;
+  const n = keep.length;
+
+  const measured = readMeasurements(rows, readings, timeline, lineOf, warnings);
+  if (!measured.some((m) => m.values.some((v) => v === v))) return refusals.noValues(headerLine);
+
+  const channels: Partial<Record<ChannelName, Float64Array>> = {};
+  for (const m of measured) if (m.quantity === 'current') channels[m.field as ChannelName] = m.values;
+  const series: RideSeries = { t: timeline.t, phase: phasesOf(rows, readings, keep, channels, lineOf, warnings), channels };
+  for (const m of measured) {
+    const key = SERIES_KEYS[m.field];
+    if (key) series[key] = m.values;
+  }
+
+  const entries = readPreamble(layout.preamble, delimiter);
+  const startedAt = startedAtOf(entries, timeline.format, timeline.raw0, rows[keep[0]][timeIndex], options.timeZone, warnings);
+  if (n === 1) warnings.push("The file has only one sample, so the ride's durations are 0 s.");
+  const metresPerRev = metresPerRevOf(options, warnings);
+
+  return {
+    ok: true,
+    summary: summarise(series, { metresPerRev, startedAt, warnings }),
+    series,
+    metadata: {
+      encoding,
+      delimiter,
+      decimalComma,
+      headerLine,
+      columns: readings.map((r) => ({
+        header: r.header,
+        field: r.field,
+        unit: r.field === 'time' ? (timeline.format === 'milliseconds' ? 'ms' : 's') : (r.unit?.symbol ?? null),
+      })),
+      preamble: Object.fromEntries(entries.map((e) => [e.key, e.value])),
+      ...deviceOf(entries),
+    },
+  };
+}
+
+function phasesOf(
+  rows: string[][],
+  readings: ColumnReading[],
+  keep: Int32Array,
+  channels: Partial<Record<ChannelName, Float64Array>>,
+  lineOf: LineOf,
+  warnings: string[],
+): Phase[] {
+  const n = keep.length;
+  const phaseIndex = readings.findIndex((r) => r.field === 'phase');
+  if (phaseIndex >= 0) {
+    const cells = new Array<string | undefined>(n);
+    for (let k = 0; k < n; k++) cells[k] = rows[keep[k]][phaseIndex];
+    const fromColumn = phasesFromColumn(cells, keep);
+    if (fromColumn !== null) {
+      const u = fromColumn.unknown;
+      if (u.count > 0) {
+        const words = fromColumn.unknownWords.map((w) => `"${w}"`).join(', ');
+        warnings.push(
+          `${u.count === 1 ? '1 row has' : `${u.count} rows have`} a phase Kinloop does not know (${words}); ${u.count === 1 ? 'it was' : 'they were'} given the phase of the nearest row with a known phase ${linesOf(u, lineOf)}.`,
+        );
+      }
+      return fromColumn.phases;
+    }
+    warnings.push(`The phase column "${readings[phaseIndex].header}" holds no phase word Kinloop knows; the phases were worked out as if the file had none.`);
+  }
+  const currents = Object.values(channels);
+  if (currents.length === 0) return new Array<Phase>(n).fill('active');
+  const fromCurrent = phasesFromCurrent(currents, n);
+  if (fromCurrent !== null) return fromCurrent;
+  warnings.push('No channel current is above 0 mA, so the whole ride was counted as passive.');
+  return new Array<Phase>(n).fill('passive');
+}
+
+/** An instant from a value that may lack a UTC offset: the time zone if given, else UTC with a warning. */
+function instantOf(ms: number, hasOffset: boolean, what: string, timeZone: string | undefined, warnings: string[]): number {
+  if (hasOffset) return ms;
+  if (timeZone !== undefined) {
+    const zoned = wallTimeToEpochMs(ms, timeZone);
+    if (zoned !== null) return zoned;
+    warnings.push(`The time zone "${timeZone}" is not known; ${what} was read as UTC.`);
+    return ms;
+  }
+  warnings.push(`${what[0].toUpperCase()}${what.slice(1)} has no UTC offset and no time zone was given; it was read as UTC.`);
+  return ms;
+}
+
+function startedAtOf(
+  entries: ReturnType<typeof readPreamble>,
+  format: TimeFormat,
+  raw0: number,
+  firstTimeCell: string,
+  timeZone: string | undefined,
+  warnings: string[],
+): string | null {
+  const start = startOf(entries);
+  if (start.kind === 'found') {
+    const what = `the start time "${start.text}" (line ${start.entry.line})`;
+    return toIsoUtc(instantOf(start.ms, isoHasOffset(start.text), what, timeZone, warnings));
+  }
+  if (start.kind === 'unreadable') {
+    warnings.push(`The start time "${start.entry.value}" (line ${start.entry.line}) is not an ISO 8601 date-time and was not used.`);
+  }
+  if (format !== 'iso') return null;
+  return toIsoUtc(instantOf(raw0, isoHasOffset(firstTimeCell), 'the first timestamp', timeZone, warnings));
+}
