@@ -105,14 +105,17 @@ describe('isoWeekOf and localDate on instants in a time zone', () => {
   it('agrees with @date-fns/tz for every 7 hours over two years in four zones', () => {
     // source: @date-fns/tz tz() with date-fns format/getISOWeek
     const zones = ['Europe/Berlin', 'Australia/Sydney', 'America/Los_Angeles', 'Pacific/Auckland'];
+    const mismatches: string[] = [];
     for (let ms = Date.parse('2025-12-01T00:00:00Z'); ms < Date.parse('2027-12-01T00:00:00Z'); ms += 7 * 3600_000) {
       const instant = new Date(ms).toISOString();
       for (const zone of zones) {
         const expected = reference(instant, zone);
-        expect({ date: localDate(instant, zone), isoWeek: isoWeekOf(instant, zone).isoWeek }, `${instant} ${zone}`).toEqual(expected);
+        const actual = { date: localDate(instant, zone), isoWeek: isoWeekOf(instant, zone).isoWeek };
+        if (actual.date !== expected.date || actual.isoWeek !== expected.isoWeek) mismatches.push(`${instant} ${zone}: ${JSON.stringify(actual)} ≠ ${JSON.stringify(expected)}`);
       }
     }
-  });
+    expect(mismatches).toEqual([]);
+  }, 60_000);
 
   it('refuses an unknown time zone', () => {
     expect(() => localDate('2026-10-05T10:00:00Z', 'Mars/Olympus')).toThrow(RangeError);
