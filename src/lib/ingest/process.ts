@@ -85,7 +85,7 @@ function startTime(parsed: ParsedRide, upload: UploadRow): { startedAt: Date; so
 }
 
 /** Writes the session and its series; a reprocessed upload replaces its own session in place. */
-async function saveRide(
+export async function saveRide(
   trx: Knex.Transaction,
   p: { upload: UploadRow; client: ClientRow; device: DeviceRow | null; parsed: ParsedRide; startedAt: Date; source: StartedAtSource; warnings: string[] },
 ): Promise<string> {

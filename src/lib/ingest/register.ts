@@ -21,11 +21,13 @@ export async function registerUploads(
     await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`uploads:${p.clientId}`]);
     const out: UploadRow[] = [];
     for (const f of p.files) {
-      const earlier = await trx<UploadRow>('uploads')
+      const first = await trx<UploadRow>('uploads')
         .where({ client_id: p.clientId, sha256: f.sha256 })
         .whereNull('duplicate_of_upload_id')
         .orderBy('uploaded_at')
         .first();
+      // A refused file sent again with another import profile is read again: that is how a carer fixes it.
+      const earlier = first && first.status === 'rejected' && first.import_profile_id !== p.importProfileId ? undefined : first;
       const base = {
         client_id: p.clientId,
         clinic_id: p.clinicId,

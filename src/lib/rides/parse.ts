@@ -199,6 +199,7 @@ export function parseRide(bytes: Uint8Array, options: ParseOptions = {}): Parsed
         header: r.header,
         field: r.field,
         unit: r.field === 'time' ? (timeline.format === 'milliseconds' ? 'ms' : 's') : (r.unit?.symbol ?? null),
+        problem: r.problem,
       })),
       preamble: Object.fromEntries(entries.map((e) => [e.key, e.value])),
       ...deviceOf(entries),

@@ -104,7 +104,7 @@ export interface RideMetadata {
   decimalComma: boolean;
   headerLine: number;
   /** How each header of the file was read: the field and unit, or null when it was ignored. */
-  columns: { header: string; field: CanonicalField | null; unit: string | null }[];
+  columns: { header: string; field: CanonicalField | null; unit: string | null; problem: string | null }[];
   /** `key: value` lines found before the header row, keys as written. */
   preamble: Record<string, string>;
   deviceSerial: string | null;

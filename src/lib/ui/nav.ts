@@ -20,6 +20,7 @@ export function navFor(viewer: Viewer, options: { mailbox: boolean }): NavSectio
         { href: '/triage', label: 'Triage' },
         { href: '/clients', label: 'Clients' },
         { href: '/reports', label: 'Reports' },
+        { href: '/upload', label: 'Upload rides' },
       ],
     });
   }
@@ -40,6 +41,7 @@ export function navFor(viewer: Viewer, options: { mailbox: boolean }): NavSectio
       links: [
         { href: '/my-week', label: 'My week' },
         { href: '/progress', label: 'Progress' },
+        { href: '/upload', label: 'Upload rides' },
       ],
     });
   }
