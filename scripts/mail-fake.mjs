@@ -41,7 +41,8 @@ const server = new SMTPServer({
           subject: mail.subject ?? '',
           text: mail.text ?? '',
           html: typeof mail.html === 'string' ? mail.html : '',
-          headers: Object.fromEntries([...mail.headers].filter(([, v]) => typeof v === 'string')),
+          // Header lines as sent (parsed header values can be objects).
+          headers: Object.fromEntries(mail.headerLines.map((h) => [h.key, h.line.slice(h.line.indexOf(':') + 1).trim()])),
         };
         // Write then rename, so that a reader never sees half a message.
         const tmp = path.join(values.dir, `.${id}.tmp`);

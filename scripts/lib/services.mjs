@@ -142,10 +142,11 @@ export function startPostgres(bin, config) {
     run(path.join(bin, 'psql'), ['-X', '-q', '-t', '-A', '-h', socket, '-p', String(config.pgPort), '-U', 'postgres', '-d', db, '-v', 'ON_ERROR_STOP=1', '-c', sql], { quiet: true }).stdout.trim();
   const pw = config.pgPassword.replace(/'/g, "''");
   if (psql("SELECT 1 FROM pg_roles WHERE rolname = 'kinloop'") !== '1') {
-    psql(`CREATE ROLE kinloop LOGIN PASSWORD '${pw}'`);
+    psql(`CREATE ROLE kinloop LOGIN CREATEDB PASSWORD '${pw}'`);
   } else {
-    psql(`ALTER ROLE kinloop PASSWORD '${pw}'`);
+    psql(`ALTER ROLE kinloop LOGIN CREATEDB PASSWORD '${pw}'`);
   }
+  // CREATEDB lets tests make throwaway databases of their own in the cluster.
   if (psql("SELECT 1 FROM pg_database WHERE datname = 'kinloop'") !== '1') {
     psql('CREATE DATABASE kinloop OWNER kinloop');
   }

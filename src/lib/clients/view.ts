@@ -15,6 +15,7 @@ export function clientView(row: ClientRow) {
     bodyMassKg: row.body_mass_kg === null ? null : Number(row.body_mass_kg),
     programStart: row.program_start,
     primaryTherapistId: row.primary_therapist_id,
+    baselineSystolic: row.baseline_systolic,
     hasAccount: row.user_id !== null,
   };
 }

@@ -44,6 +44,7 @@ export interface ClientRow {
   program_start: string | null;
   user_id: string | null;
   primary_therapist_id: string | null;
+  baseline_systolic: number | null;
   archived_at: Date | null;
   created_at: Date;
   updated_at: Date;
@@ -130,6 +131,7 @@ export interface OutboxEmailRow {
   next_attempt_at: Date;
   last_error: string | null;
   sent_at: Date | null;
+  dedupe_key: string | null;
   created_at: Date;
 }
 
@@ -277,4 +279,50 @@ export interface ClientNoteRow {
   author_id: string;
   body: string;
   created_at: Date;
+}
+
+export interface CheckRow {
+  id: string;
+  client_id: string;
+  clinic_id: string;
+  recorded_by: string;
+  taken_at: Date;
+  ride_id: string | null;
+  bp_before_systolic: number | null;
+  bp_before_diastolic: number | null;
+  bp_during_systolic: number | null;
+  bp_during_diastolic: number | null;
+  bp_after_systolic: number | null;
+  bp_after_diastolic: number | null;
+  bp_after_minutes: number | null;
+  heart_rate_before: number | null;
+  heart_rate_after: number | null;
+  ad_symptoms: string[];
+  other_events: string[];
+  skin: { site: string; state: string }[];
+  effort: number | null;
+  comment: string | null;
+  evaluation: Record<string, unknown>;
+  created_at: Date;
+}
+
+export interface DistanceGoalRow {
+  id: string;
+  client_id: string;
+  builtin_route_id: string | null;
+  custom_route: import('../goals/route').Route | null;
+  count_from: string;
+  chosen_by: string;
+  created_at: Date;
+  replaced_at: Date | null;
+}
+
+export interface NotificationPreferencesRow {
+  user_id: string;
+  reminders: boolean;
+  weekly_summary: boolean;
+  daily_digest: boolean;
+  urgent_alerts: boolean;
+  unsubscribe_token: string;
+  updated_at: Date;
 }

@@ -3,7 +3,8 @@ import { processUpload } from '../ingest/process';
 import { resendStaleUploads } from '../ingest/sweep';
 import { deliverDueEmails } from '../mail/outbox';
 import { registerFlagJobs } from '../supervision/flag-jobs';
-import { QUEUES, workQueue } from './queue';
+import { sendScheduledEmails } from '../notifications/scheduled';
+import { QUEUES, queue, workQueue } from './queue';
 
 const OUTBOX_POLL_MS = 2000;
 // Crash-recovery tests hold a job here to kill the worker while it is active.
@@ -36,6 +37,10 @@ export function startBackgroundWork(): Promise<void> {
       await processUpload(db(), uploadId);
     });
     await registerFlagJobs();
+    await (await queue()).schedule(QUEUES.scheduledMail, '0 * * * *');
+    await workQueue(QUEUES.scheduledMail, async () => {
+      await sendScheduledEmails(db());
+    });
     every(OUTBOX_POLL_MS, 'outbox delivery', () => deliverDueEmails(db()));
     every(SWEEP_MS, 'upload sweep', () => resendStaleUploads(db()));
   })();

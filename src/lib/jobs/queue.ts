@@ -7,6 +7,7 @@ export const QUEUES = {
   parseRide: 'ride-parse',
   evaluateFlags: 'flags-evaluate',
   sweepFlags: 'flags-sweep',
+  scheduledMail: 'mail-scheduled',
 } as const;
 
 const QUEUE_OPTIONS: Record<string, Omit<PgBoss.Queue, 'name'>> = {
@@ -14,6 +15,7 @@ const QUEUE_OPTIONS: Record<string, Omit<PgBoss.Queue, 'name'>> = {
   // "stately": at most one waiting and one running evaluation per client.
   [QUEUES.evaluateFlags]: { policy: 'stately', retryLimit: 5, retryDelay: 10, retryBackoff: true },
   [QUEUES.sweepFlags]: { policy: 'short', retryLimit: 2 },
+  [QUEUES.scheduledMail]: { policy: 'short', retryLimit: 2 },
 };
 
 let boss: Promise<PgBoss> | null = null;

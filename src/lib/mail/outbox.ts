@@ -10,11 +10,13 @@ export interface EmailMessage {
   text: string;
   html: string;
   headers?: Record<string, string>;
+  /** Mail with the same key is queued once only (one reminder a day, one digest a day, one alert per flag change). */
+  dedupeKey?: string;
 }
 
-/** Queues an e-mail; pass the transaction of the change that causes it. */
-export async function enqueueEmail(knex: Knex | Knex.Transaction, message: EmailMessage): Promise<string> {
-  const [row] = await knex('outbox_emails')
+/** Queues an e-mail (pass the transaction of the change that causes it); null when its dedupe key was queued before. */
+export async function enqueueEmail(knex: Knex | Knex.Transaction, message: EmailMessage): Promise<string | null> {
+  const rows = await knex('outbox_emails')
     .insert({
       kind: message.kind,
       user_id: message.userId ?? null,
@@ -23,15 +25,19 @@ export async function enqueueEmail(knex: Knex | Knex.Transaction, message: Email
       text_body: message.text,
       html_body: message.html,
       headers: JSON.stringify(message.headers ?? {}),
+      dedupe_key: message.dedupeKey ?? null,
     })
+    .onConflict('dedupe_key')
+    .ignore()
     .returning('id');
-  return row.id;
+  return rows[0]?.id ?? null;
 }
 
 // 15 s, 30 s, 1 min … capped at one hour: a mail server that is down for a
 // while gets tried again soon after it is back, without a storm of attempts.
+const FIRST_RETRY_MS = Number(process.env.KINLOOP_OUTBOX_RETRY_MS ?? 15_000);
 export function retryDelayMs(attempts: number): number {
-  return Math.min(15_000 * 2 ** Math.max(0, attempts - 1), 3_600_000);
+  return Math.min(FIRST_RETRY_MS * 2 ** Math.max(0, attempts - 1), 3_600_000);
 }
 
 /**

@@ -3,6 +3,7 @@
 import type { Knex } from 'knex';
 import type { ClientRow, FlagRow } from '../db/tables';
 import { planFlagChanges, SESSION_FLAG_KINDS, type ExistingFlag, type FlagChange, type FlagCondition } from '../flags';
+import { alertUrgentFlag } from '../notifications/alerts';
 import { flagInput, loadHistory } from './history';
 
 export function existingFlag(row: FlagRow): ExistingFlag {
@@ -20,12 +21,6 @@ export function existingFlag(row: FlagRow): ExistingFlag {
   };
 }
 
-type Listener = (knex: Knex, flag: FlagRow, change: FlagChange['type']) => Promise<void>;
-const listeners: Listener[] = [];
-/** For what follows a raised or updated flag (the immediate e-mail for urgent ones). */
-export function onFlagChanged(listener: Listener): void {
-  listeners.push(listener);
-}
 
 async function event(trx: Knex.Transaction, flagId: string, action: string, detail: Record<string, unknown> = {}, note: string | null = null, actor: string | null = null) {
   await trx('flag_events').insert({ flag_id: flagId, action, detail: JSON.stringify(detail), note, actor_user_id: actor });
@@ -68,7 +63,7 @@ export async function evaluateClientFlags(knex: Knex, clientId: string, now = ne
     }
     return planned;
   });
-  for (const t of touched) for (const l of listeners) await l(knex, t.row, t.type);
+  for (const t of touched) await alertUrgentFlag(knex, t.row);
   return changes;
 }
 
@@ -97,6 +92,6 @@ export async function raiseCheckFlag(
     await event(trx, row.id, 'raised', { severity: p.severity, anchor: p.anchor, reason: p.reason });
     return { row, type: 'raise' as const };
   });
-  for (const l of listeners) await l(knex, result.row, result.type);
+  await alertUrgentFlag(knex, result.row);
   return result.row;
 }

@@ -1,0 +1,40 @@
+import { z } from 'zod';
+import { accessClient } from '../auth/access';
+import { auditAs, type RequestContext } from '../auth/context';
+import { clientInputSchema } from './create';
+import { readClient } from './read';
+
+export const clientUpdateSchema = z
+  .object({
+    name: clientInputSchema.shape.name.optional(),
+    timezone: clientInputSchema.shape.timezone.optional(),
+    injuryLevel: clientInputSchema.shape.injuryLevel.nullable(),
+    aisGrade: clientInputSchema.shape.aisGrade.nullable(),
+    adRisk: clientInputSchema.shape.adRisk,
+    bodyMassKg: clientInputSchema.shape.bodyMassKg.nullable(),
+    programStart: clientInputSchema.shape.programStart.nullable(),
+    primaryTherapistId: z.string().uuid().nullable().optional(),
+    /** The resting systolic pressure that rises are judged against (the therapist's value; without it the median of pre-ride readings). */
+    baselineSystolic: z.number().int().min(70, 'Baseline systolic: enter 70–200 mmHg.').max(200, 'Baseline systolic: enter 70–200 mmHg.').nullable().optional(),
+  })
+  .strict();
+
+const COLUMNS: Record<string, string> = {
+  name: 'display_name',
+  timezone: 'time_zone',
+  injuryLevel: 'injury_level',
+  aisGrade: 'ais_grade',
+  adRisk: 'ad_risk',
+  bodyMassKg: 'body_mass_kg',
+  programStart: 'program_start',
+  primaryTherapistId: 'primary_therapist_id',
+  baselineSystolic: 'baseline_systolic',
+};
+
+export async function updateClient(ctx: RequestContext, clientId: string, input: z.infer<typeof clientUpdateSchema>) {
+  const client = await accessClient(ctx, clientId, 'manage', 'client.update', { fields: Object.keys(input) });
+  const changes = Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined).map(([k, v]) => [COLUMNS[k], k === 'injuryLevel' && typeof v === 'string' ? v.toUpperCase() : v]));
+  if (Object.keys(changes).length) await ctx.knex('clients').where({ id: client.id }).update({ ...changes, updated_at: ctx.knex.fn.now() });
+  await auditAs(ctx, { action: 'client.changed', clinicId: client.clinic_id, clientId: client.id, detail: { fields: Object.keys(input) } });
+  return readClient(ctx, client.id);
+}
