@@ -1,0 +1,24 @@
+// Plain words for flag kinds and severities, shared by triage, the caseload and
+// any page that lists flags.
+import { FLAG_SEVERITIES, type FlagKind, type FlagSeverity } from '../../lib/flags/types';
+
+export const KIND_WORDS: Record<FlagKind, string> = {
+  missed_sessions: 'Missed sessions',
+  power_drop: 'Power drop',
+  current_rise: 'Current rise',
+  short_session: 'Short sessions',
+  bp_rise: 'Blood pressure rise',
+  bp_drop: 'Blood pressure fall after riding',
+  skin_concern: 'Skin concern',
+};
+
+export const SEVERITY_WORDS: Record<FlagSeverity, string> = {
+  urgent: 'Urgent',
+  review: 'Review',
+  info: 'Info',
+};
+
+/** 0 for the most severe; a client without flags sorts after every severity. */
+export function severityRank(severity: FlagSeverity | undefined): number {
+  return severity ? FLAG_SEVERITIES.indexOf(severity) : FLAG_SEVERITIES.length;
+}

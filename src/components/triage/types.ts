@@ -1,0 +1,14 @@
+// The row shapes of GET /api/triage and GET /api/caseload, as the browser receives them.
+import type { ClientOverview } from '../../lib/supervision/overview';
+import type { FlagView } from '../../lib/supervision/flags';
+
+export type FlagItem = FlagView;
+
+export interface ClientRow extends ClientOverview {
+  clientId: string;
+  clientName: string;
+  /** Open, not snoozed; most severe first, then the oldest. */
+  flags: FlagItem[];
+}
+
+export type FlagAction = 'acknowledge' | 'snooze' | 'resolve';
