@@ -1,0 +1,69 @@
+import type { ChartData, ChartOptions } from 'chart.js';
+import { useMemo } from 'react';
+import { Line } from 'react-chartjs-2';
+import { number } from '../rides/format';
+import { baseOptions, COLOURS } from './chart-setup';
+import { ChartFrame, type ChartTable } from './ChartFrame';
+import { instantLabel, shortDay } from './dates';
+import type { TrendsData } from './types';
+
+const maw = (v: number | null) => (v === null ? '—' : `${number(v, 2)} mA/W`);
+
+function sentence(trends: TrendsData, locale: string, timeZone: string): string {
+  const shown = trends.sessions.filter((s) => s.currentPerWattMaPerW !== null);
+  if (!shown.length) return 'No session has both current and power readings yet.';
+  const first = shown[0];
+  const last = shown[shown.length - 1];
+  return [
+    `Stimulation current for each watt of power, over ${shown.length} ${shown.length === 1 ? 'session' : 'sessions'}: ${maw(first.currentPerWattMaPerW)} on ${shortDay(first.startedAt, locale, timeZone)}, ${maw(last.currentPerWattMaPerW)} in the latest.`,
+    `Lower means the muscles give more power for the same stimulation; a rise of ${trends.thresholds.currentRiseReviewPct} % over the usual level is flagged for review.`,
+  ].join(' ');
+}
+
+/** The sum of the channels' mean current divided by mean power, per session. */
+export function CurrentPerWattChart({ trends, locale, timeZone }: { trends: TrendsData; locale: string; timeZone: string }) {
+  const { sessions } = trends;
+  const data = useMemo<ChartData<'line', (number | null)[], string>>(
+    () => ({
+      labels: sessions.map((s) => shortDay(s.startedAt, locale, timeZone)),
+      datasets: [
+        {
+          label: 'Current per watt',
+          data: sessions.map((s) => s.currentPerWattMaPerW),
+          borderColor: COLOURS.slate,
+          backgroundColor: COLOURS.slate,
+          pointRadius: 3,
+          borderWidth: 2,
+          spanGaps: true,
+        },
+      ],
+    }),
+    [sessions, locale, timeZone],
+  );
+  const options = useMemo<ChartOptions<'line'>>(() => {
+    const base = baseOptions<'line'>('mA per W');
+    return {
+      ...base,
+      plugins: {
+        ...base.plugins,
+        legend: { display: false },
+        tooltip: {
+          callbacks: {
+            title: (items) => (items.length ? instantLabel(sessions[items[0].dataIndex].startedAt, locale, timeZone) : ''),
+            label: (item) => maw(item.parsed.y),
+          },
+        },
+      },
+    };
+  }, [sessions, locale, timeZone]);
+  const table: ChartTable = {
+    caption: 'Current per watt per session',
+    columns: ['Session', 'Current per watt'],
+    rows: sessions.map((s) => ({ key: s.sessionId, cells: [instantLabel(s.startedAt, locale, timeZone), maw(s.currentPerWattMaPerW)] })),
+  };
+  return (
+    <ChartFrame id="current-chart" title="Current per watt" summary={sentence(trends, locale, timeZone)} table={table}>
+      <Line data={data} options={options} role="img" aria-label="Line chart of stimulation current per watt for each session; the sentence above and the table below give the numbers." />
+    </ChartFrame>
+  );
+}

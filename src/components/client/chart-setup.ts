@@ -1,0 +1,48 @@
+// What the client page's charts need from chart.js, registered once, and the
+// palette of global.css so the charts match the page.
+import { BarElement, CategoryScale, Chart, Filler, Legend, LinearScale, LineElement, PointElement, Tooltip, type ChartOptions, type ChartType, type LegendItem } from 'chart.js';
+
+Chart.register(CategoryScale, LinearScale, BarElement, LineElement, PointElement, Filler, Tooltip, Legend);
+
+export const COLOURS = {
+  ink: '#1d2a2f',
+  inkSoft: '#4b5b61',
+  line: '#d6d1c4',
+  lineStrong: '#8f8a7d',
+  lagoon: '#1e5a5f',
+  lagoonTint: '#e3efee',
+  ochre: '#7a4f05',
+  ochreTint: '#fbf0d9',
+  brick: '#9c2f29',
+  slate: '#3a5378',
+  slateTint: '#e7edf6',
+  moss: '#2f6133',
+  mossTint: '#e6f1e5',
+  surface: '#ffffff',
+} as const;
+
+/** The key shows lines as short lines and bars and filled bands as blocks, whatever the points look like. */
+function keyItems(chart: Chart): LegendItem[] {
+  return Chart.defaults.plugins.legend.labels.generateLabels(chart).map((item) => {
+    const dataset = chart.data.datasets[item.datasetIndex ?? 0] as { type?: string; fill?: unknown };
+    const block = (dataset.type ?? (chart.config as { type?: string }).type) === 'bar' || Boolean(dataset.fill);
+    return { ...item, pointStyle: block ? 'rect' : 'line' };
+  });
+}
+
+/** Shared by every chart on the page: no animation, categories along x, a legend below, the y title given. */
+export function baseOptions<T extends ChartType>(yTitle: string): ChartOptions<T> {
+  return {
+    responsive: true,
+    maintainAspectRatio: false,
+    animation: false,
+    interaction: { mode: 'index', intersect: false },
+    plugins: {
+      legend: { position: 'bottom', labels: { color: COLOURS.ink, usePointStyle: true, pointStyleWidth: 28, boxHeight: 10, generateLabels: keyItems } },
+    },
+    scales: {
+      x: { ticks: { color: COLOURS.ink, maxRotation: 0, autoSkipPadding: 12 }, grid: { display: false } },
+      y: { beginAtZero: true, title: { display: true, text: yTitle, color: COLOURS.ink }, ticks: { color: COLOURS.ink }, grid: { color: COLOURS.line } },
+    },
+  } as ChartOptions<T>;
+}
