@@ -87,7 +87,7 @@ describe('a worker killed mid-job', () => {
 
       await start(tsx, ['src/worker.ts'], workerEnv, /kinloop worker ready/);
       let row = await world.knex('uploads').where({ id: upload.id }).first();
-      const until = Date.now() + 45_000;
+      const until = Date.now() + 90_000;
       while (row.status === 'queued' && Date.now() < until) {
         await new Promise((r) => setTimeout(r, 300));
         row = await world.knex('uploads').where({ id: upload.id }).first();

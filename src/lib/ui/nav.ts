@@ -32,6 +32,7 @@ export function navFor(viewer: Viewer, options: { mailbox: boolean }): NavSectio
         { href: '/upload', label: 'Upload rides' },
         { href: '/clients', label: viewer.carerOf.length > 1 ? 'My clients' : 'My client' },
         { href: '/checks', label: 'Checks' },
+        { href: '/my-prescription', label: 'Prescriptions' },
       ],
     });
   }
@@ -41,6 +42,9 @@ export function navFor(viewer: Viewer, options: { mailbox: boolean }): NavSectio
       links: [
         { href: '/my-week', label: 'My week' },
         { href: '/progress', label: 'Progress' },
+        { href: '/goal', label: 'Distance goal' },
+        { href: '/checks', label: 'How a ride went' },
+        { href: '/my-prescription', label: 'My prescription' },
         { href: '/upload', label: 'Upload rides' },
       ],
     });

@@ -1,0 +1,104 @@
+import type { ReactNode } from 'react';
+import { useApi } from '../api';
+import { duration, number } from '../rides/format';
+import { Loaded } from '../ui/Loading';
+import { LAGOON, OCHRE, SLATE } from './chart-setup';
+import { fullDate, instantDay } from './dates';
+import { km } from './goal-words';
+import { GoalSummary } from './GoalSummary';
+import { MEASURES } from './progress-words';
+import type { Goal, ProgressData } from './types';
+import { WeekChart } from './WeekChart';
+
+/** The rider's progress since the program started: weekly charts, personal bests and the distance goal. */
+export default function Progress({ clientId, timeZone, locale }: { clientId: string; timeZone: string; locale: string }) {
+  const [progress, reload] = useApi<ProgressData>(`/api/clients/${clientId}/progress`);
+  const [goal, reloadGoal] = useApi<{ goal: Goal | null }>(`/api/clients/${clientId}/goal`);
+  return (
+    <div className="space-y-8">
+      <Loaded value={progress} reload={reload} label="your progress">
+        {(data) => <ProgressView data={data} timeZone={timeZone} locale={locale} />}
+      </Loaded>
+      <section aria-labelledby="goal-h" className="card space-y-3">
+        <h2 id="goal-h" className="text-xl">
+          Distance goal
+        </h2>
+        <Loaded value={goal} reload={reloadGoal} label="your distance goal">
+          {(data) => <GoalSummary goal={data.goal} locale={locale} />}
+        </Loaded>
+      </section>
+    </div>
+  );
+}
+
+function ProgressView({ data, timeZone, locale }: { data: ProgressData; timeZone: string; locale: string }) {
+  const { totals, bests, weeks } = data;
+  const { longestActive, highestPower5s, mostDistanceWeek } = bests;
+  return (
+    <div className="space-y-8">
+      <p className="text-xl" data-testid="totals">
+        {totals.sessions
+          ? `Since your program started: ${totals.sessions} ${totals.sessions === 1 ? 'ride' : 'rides'}, ${number(totals.activeMinutes, 0, locale)} active minutes and ${km(totals.distanceM, locale)}.`
+          : 'Your rides will show here once their files are uploaded.'}
+      </p>
+
+      <section aria-labelledby="bests-h" className="space-y-3">
+        <h2 id="bests-h" className="text-xl">
+          Personal bests
+        </h2>
+        <ul className="grid gap-4 md:grid-cols-3">
+          <Best title="Longest active ride" value={longestActive ? duration(longestActive.activeS) : null}>
+            {longestActive && <RideLink id={longestActive.sessionId} day={instantDay(longestActive.startedAt, locale, timeZone)} />}
+          </Best>
+          <Best title="Highest 5-second power" value={highestPower5s ? `${number(highestPower5s.peakPower5sW, 1, locale)} W` : null}>
+            {highestPower5s && <RideLink id={highestPower5s.sessionId} day={instantDay(highestPower5s.startedAt, locale, timeZone)} />}
+          </Best>
+          <Best title="Most distance in a week" value={mostDistanceWeek ? km(mostDistanceWeek.distanceM, locale) : null}>
+            {mostDistanceWeek && (
+              <p>
+                Week of {fullDate(mostDistanceWeek.monday, locale)}, {mostDistanceWeek.sessions} {mostDistanceWeek.sessions === 1 ? 'ride' : 'rides'}
+              </p>
+            )}
+          </Best>
+        </ul>
+      </section>
+
+      <section aria-labelledby="weeks-h" className="space-y-3">
+        <h2 id="weeks-h" className="text-xl">
+          Week by week
+        </h2>
+        <div className="grid gap-4">
+          <WeekChart id="power" title="Mean power" axis="Mean power (W)" kind="line" colour={LAGOON} measure={MEASURES.power} weeks={weeks} locale={locale} />
+          <WeekChart id="minutes" title="Active minutes" axis="Active minutes" kind="bar" colour={SLATE} measure={MEASURES.minutes} weeks={weeks} locale={locale} />
+          <WeekChart id="distance" title="Distance" axis="Distance (km)" kind="bar" colour={OCHRE} measure={MEASURES.distance} weeks={weeks} locale={locale} />
+        </div>
+      </section>
+    </div>
+  );
+}
+
+function Best({ title, value, children }: { title: string; value: string | null; children: ReactNode }) {
+  return (
+    <li className="card space-y-1" data-testid="best">
+      <h3 className="text-base font-semibold tracking-wide text-ink-soft uppercase">{title}</h3>
+      {value ? (
+        <>
+          <p className="text-3xl font-semibold">{value}</p>
+          {children}
+        </>
+      ) : (
+        <p>Not yet: this fills in once rides with this figure are uploaded.</p>
+      )}
+    </li>
+  );
+}
+
+function RideLink({ id, day }: { id: string; day: string }) {
+  return (
+    <p>
+      <a href={`/sessions/${id}`} className="inline-flex min-h-12 items-center font-semibold">
+        {day}
+      </a>
+    </p>
+  );
+}

@@ -1,0 +1,30 @@
+// How far along a distance goal the rider is, in words, for the goal and progress pages.
+import { number } from '../rides/format';
+import type { GoalProgress } from './types';
+
+/** Kilometres with one decimal: "12.3 km". */
+export function km(metres: number, locale: string): string {
+  return `${number(metres / 1000, 1, locale)} km`;
+}
+
+/** Whole percent, never showing 100 % before the finish. */
+export function percent(fraction: number, finished: boolean): number {
+  const p = Math.floor(Math.max(0, Math.min(1, fraction)) * 100);
+  return finished ? 100 : Math.min(p, 99);
+}
+
+/** "123.4 km of 250.0 km (49 %)". */
+export function travelledText(p: GoalProgress, locale: string): string {
+  return `${km(p.travelledM, locale)} of ${km(p.totalM, locale)} (${percent(p.fraction, p.finished)} %)`;
+}
+
+/** The next milestone and what is left to it, or the finish. */
+export function nextMilestoneText(p: GoalProgress, locale: string): string {
+  if (p.finished || !p.next) return 'You have reached the finish of this route — well done.';
+  return `Next milestone: ${p.next.name}, ${km(p.next.remainingM, locale)} to go.`;
+}
+
+/** What is left of the whole route. */
+export function remainingText(p: GoalProgress, locale: string): string {
+  return p.finished ? 'Route complete.' : `${km(Math.max(0, p.totalM - p.travelledM), locale)} left to the finish.`;
+}
