@@ -142,5 +142,9 @@ describe('the object store stopping during an upload', () => {
     expect(error.code).toBe('storage_unavailable');
     expect(error.message).toMatch(/nothing was saved/i);
     expect(await world.knex('uploads').where({ original_name: name }).first()).toBeUndefined();
+    // The instance's health check names what is down.
+    const health = await fetch(`${http.origin}/api/health`);
+    expect(health.status).toBe(503);
+    expect(await health.json()).toMatchObject({ db: 'ok', storage: 'down', mail: 'ok', down: ['storage'] });
   });
 });

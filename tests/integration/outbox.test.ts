@@ -36,6 +36,8 @@ function start(args: string[], env: NodeJS.ProcessEnv, ready: RegExp, cmd = proc
 }
 const stop = (c: ChildProcess) => new Promise<void>((r) => (c.exitCode !== null || c.signalCode !== null ? r() : (c.once('exit', () => r()), c.kill('SIGKILL'))));
 const startSmtp = () => start(['scripts/mail-fake.mjs', '--port', String(smtpPort), '--dir', mailDir], {}, /mail-fake ready/);
+const unsent = async () => Number((await knex('outbox_emails').whereNull('sent_at').count<{ n: string }[]>('* as n'))[0].n);
+const failed = async () => Number((await knex('outbox_emails').whereNotNull('last_error').count<{ n: string }[]>('* as n'))[0].n);
 const received = () => readdirSync(mailDir).filter((f) => f.endsWith('.json')).length;
 
 let admin: ReturnType<typeof knexFactory>;
@@ -67,14 +69,14 @@ describe('outbox', () => {
 
     // No mail server yet: attempts fail and are kept for later.
     const until = Date.now() + 20_000;
-    while (Date.now() < until && Number((await knex('outbox_emails').whereNotNull('last_error').count('* as n'))[0].n) === 0) await new Promise((r) => setTimeout(r, 200));
-    expect(Number((await knex('outbox_emails').whereNull('sent_at').count('* as n'))[0].n)).toBe(12);
+    while (Date.now() < until && (await failed()) === 0) await new Promise((r) => setTimeout(r, 200));
+    expect(await unsent()).toBe(12);
 
     const smtp = await startSmtp();
     const deadline = Date.now() + 40_000;
     while (Date.now() < deadline && received() < 12) await new Promise((r) => setTimeout(r, 250));
     expect(received()).toBe(12);
-    expect(Number((await knex('outbox_emails').whereNull('sent_at').count('* as n'))[0].n)).toBe(0);
+    expect(await unsent()).toBe(0);
 
     // Stopped again and restarted: new mail waits, then goes, old mail is not resent.
     await stop(smtp);

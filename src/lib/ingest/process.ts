@@ -3,7 +3,7 @@
 // rejected upload can be parsed again later (after an import profile changed).
 import type { Knex } from 'knex';
 import type { ClientRow, DeviceRow, ImportProfileRow, RideRow, StartedAtSource, UploadRow } from '../db/tables';
-import { parseRide } from '../rides/parse';
+import { deviceSerialOf, parseRide } from '../rides/parse';
 import { encodeSeries, SERIES_FORMAT } from '../rides/series-codec';
 import type { ImportProfile, ParsedRide } from '../rides/types';
 import { getObjectBytes } from '../storage/s3';
@@ -26,15 +26,15 @@ export async function processUpload(knex: Knex, uploadId: string): Promise<Proce
   if (!client) throw new Error(`client ${upload.client_id} of upload ${uploadId} is missing`);
 
   const chosen = upload.import_profile_id ? await profileById(knex, upload.import_profile_id) : null;
-  let parsed = parseRide(bytes, { profile: chosen?.mapping, timeZone: client.time_zone, metresPerRev: chosen?.mapping.metresPerRev });
-  let device: DeviceRow | null = null;
-  if (parsed.ok && parsed.metadata.deviceSerial) {
-    device = (await knex<DeviceRow>('devices').where({ clinic_id: upload.clinic_id, serial: parsed.metadata.deviceSerial }).first()) ?? null;
-    // A profile attached to the device applies when none was chosen at upload.
-    if (device?.import_profile_id && !chosen) {
-      const profile = await profileById(knex, device.import_profile_id);
-      if (profile) parsed = parseRide(bytes, { profile: profile.mapping, timeZone: client.time_zone, metresPerRev: profile.mapping.metresPerRev });
-    }
+  const parse = (profile: ImportProfileRow | null) => parseRide(bytes, { profile: profile?.mapping, timeZone: client.time_zone, metresPerRev: profile?.mapping.metresPerRev });
+  let parsed = parse(chosen);
+  // A profile attached to the file's device applies when none was chosen at
+  // upload; the serial is read even from a file the built-in words refuse.
+  const serial = parsed.ok ? parsed.metadata.deviceSerial : deviceSerialOf(bytes);
+  const device = serial ? ((await knex<DeviceRow>('devices').where({ clinic_id: upload.clinic_id, serial }).first()) ?? null) : null;
+  if (device?.import_profile_id && !chosen) {
+    const profile = await profileById(knex, device.import_profile_id);
+    if (profile) parsed = parse(profile);
   }
 
   if (!parsed.ok) {

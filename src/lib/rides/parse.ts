@@ -6,7 +6,7 @@ import { tokenise } from './csv';
 import { decodeBytes, looksLikeText } from './decode';
 import { median, PAUSE_S } from './deltas';
 import { describeField, quantityOf, type ColumnReading } from './headers';
-import { commasToPoints, findLayout, usesDecimalComma } from './layout';
+import { commasToPoints, findLayout, usesDecimalComma, type PreambleLine } from './layout';
 import { deviceOf, readPreamble, startOf } from './metadata';
 import { DEFAULT_METRES_PER_REV, summarise } from './metrics';
 import { orderRows, pick, type RowOrder } from './order';
@@ -272,4 +272,22 @@ function startedAtOf(
   }
   if (format !== 'iso') return null;
   return toIsoUtc(instantOf(raw0, isoHasOffset(firstTimeCell), 'the first timestamp', timeZone, warnings));
+}
+
+/**
+ * The device serial from the lines at the top of a file, even one the parser
+ * refuses: an import profile attached to that serial may be what reads it.
+ */
+export function deviceSerialOf(bytes: Uint8Array): string | null {
+  const { text } = decodeBytes(bytes.subarray(0, 64 * 1024));
+  const lines: PreambleLine[] = text
+    .split(/\r?\n|\r/)
+    .slice(0, 50)
+    .map((t, i) => ({ line: i + 1, text: t }))
+    .filter((l) => l.text.trim() !== '');
+  for (const delimiter of [';', ',', '\t'] as const) {
+    const serial = deviceOf(readPreamble(lines, delimiter)).deviceSerial;
+    if (serial) return serial;
+  }
+  return null;
 }
