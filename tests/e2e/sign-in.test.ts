@@ -1,7 +1,7 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seriousViolations } from '../support/axe';
-import { baseUrl, launchBrowser, signInThroughPage } from '../support/browser';
+import { baseUrl, launchBrowser, signInThroughPage, waitForIslands } from '../support/browser';
 
 const HOMES = [
   { email: 'therapist@kinloop.test', path: '/triage', heading: 'Triage' },
@@ -43,6 +43,7 @@ describe('signing in as each demo role', () => {
     const context = await browser.newContext();
     const page = await context.newPage();
     await page.goto(`${baseUrl()}/sign-in`);
+    await waitForIslands(page);
     await page.keyboard.press('Tab');
     await expect(page.evaluate(() => document.activeElement?.getAttribute('name'))).resolves.toBe('email');
     await page.keyboard.type('carer@kinloop.test');

@@ -1,4 +1,4 @@
-import { randomInt } from 'node:crypto';
+import { randomBytes } from 'node:crypto';
 import { baseUrl } from './browser';
 
 /**
@@ -9,7 +9,8 @@ import { baseUrl } from './browser';
  */
 export class Http {
   cookie: string | null = null;
-  readonly address = `203.0.113.${randomInt(1, 255)}, 198.51.100.${randomInt(1, 255)}`;
+  // An address of the IPv6 documentation range with 64 random bits: never shared by two clients.
+  readonly address = `203.0.113.7, 2001:db8:${randomBytes(8).toString('hex').match(/.{4}/g)!.join(':')}`;
 
   constructor(readonly origin = baseUrl()) {}
 

@@ -32,12 +32,27 @@ export function queue(): Promise<PgBoss> {
     });
     instance.on('error', (err) => console.error('job queue:', err.message));
     await instance.start();
-    for (const [name, options] of Object.entries(QUEUE_OPTIONS)) {
-      await instance.createQueue(name, { name, ...options });
-    }
+    for (const [name, options] of Object.entries(QUEUE_OPTIONS)) await ensureQueue(instance, name, options);
     return instance;
   })();
   return boss;
+}
+
+/**
+ * Creates a queue unless it exists. Two processes starting together on a new
+ * database can deadlock in pg-boss's createQueue; one of them retries.
+ */
+async function ensureQueue(instance: PgBoss, name: string, options: Omit<PgBoss.Queue, 'name'>): Promise<void> {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      if (!(await instance.getQueue(name))) await instance.createQueue(name, { name, ...options });
+      return;
+    } catch (err) {
+      const code = (err as { code?: string }).code;
+      if (attempt >= 5 || (code !== '40P01' && code !== '23505')) throw err;
+      await new Promise((r) => setTimeout(r, 100 * attempt + Math.random() * 200));
+    }
+  }
 }
 
 export async function stopQueue(): Promise<void> {
