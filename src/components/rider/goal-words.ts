@@ -9,7 +9,8 @@ export function km(metres: number, locale: string): string {
 
 /** Whole percent, never showing 100 % before the finish. */
 export function percent(fraction: number, finished: boolean): number {
-  const p = Math.floor(Math.max(0, Math.min(1, fraction)) * 100);
+  // Rounded to a millionth first, so that 0.29 × 100 = 28.999… still reads 29.
+  const p = Math.floor(Math.round(Math.max(0, Math.min(1, fraction)) * 1e6) / 1e4);
   return finished ? 100 : Math.min(p, 99);
 }
 

@@ -47,6 +47,11 @@ export function routeFromDraft(draft: RouteDraft): { route: { name: string; poin
 export function draftFromPoints(name: string, points: RoutePoint[], key: (i: number) => string): RouteDraft {
   return {
     name,
-    rows: points.map((p, i) => ({ key: key(i), name: p.name, lat: String(p.lat), lon: String(p.lon), milestone: Boolean(p.milestone) })),
+    rows: points.map((p, i) => ({ key: key(i), name: p.name, lat: coordinate(p.lat), lon: coordinate(p.lon), milestone: Boolean(p.milestone) })),
   };
+}
+
+/** Six decimals (about 0.1 m), never in exponent notation, so a saved point reads back into the form. */
+function coordinate(value: number): string {
+  return String(Number(value.toFixed(6)));
 }

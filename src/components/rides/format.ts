@@ -6,7 +6,8 @@ const DASH = '—';
 
 export function number(value: number | null | undefined, digits: number, locale?: string): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return DASH;
-  return value.toLocaleString(locale, { minimumFractionDigits: digits, maximumFractionDigits: digits });
+  // A value that rounds to zero is written without a minus sign.
+  return value.toLocaleString(locale, { minimumFractionDigits: digits, maximumFractionDigits: digits, signDisplay: 'negative' } as Intl.NumberFormatOptions);
 }
 
 export function withUnit(value: number | null | undefined, digits: number, unit: string, locale?: string): string {
@@ -24,7 +25,7 @@ export function minutes(seconds: number | null | undefined, locale?: string): st
 /** "45 s", "32 min", "1 h 05 min". */
 export function duration(seconds: number | null | undefined): string {
   if (seconds === null || seconds === undefined || !Number.isFinite(seconds)) return DASH;
-  if (seconds < 60) return `${Math.round(seconds)} s`;
+  if (Math.round(seconds) < 60) return `${Math.round(seconds)} s`;
   const total = Math.round(seconds / 60);
   if (total < 60) return `${total} min`;
   return `${Math.floor(total / 60)} h ${String(total % 60).padStart(2, '0')} min`;
@@ -33,7 +34,7 @@ export function duration(seconds: number | null | undefined): string {
 /** Metres below a kilometre, else kilometres with two decimals. */
 export function distance(metres: number | null | undefined, locale?: string): string {
   if (metres === null || metres === undefined || !Number.isFinite(metres)) return DASH;
-  return metres < 1000 ? withUnit(metres, 0, 'm', locale) : withUnit(metres / 1000, 2, 'km', locale);
+  return Math.round(metres) < 1000 ? withUnit(metres, 0, 'm', locale) : withUnit(metres / 1000, 2, 'km', locale);
 }
 
 /** "m:ss" from seconds, for chart positions. */

@@ -35,7 +35,7 @@ export function minuteRows(phases: ChartSeries['phases'], series: Point[][], end
       }
     }
     // A one-sample run (or the final instant) has no length but still names the phase.
-    phase ??= ranges.find((r) => r.from >= from && r.from < to)?.phase ?? null;
+    phase ??= (ranges.find((r) => r.from >= from && r.from < to) ?? ranges.find((r) => r.from <= from && r.to >= from))?.phase ?? null;
     const values = series.map((points) => {
       let sum = 0;
       let n = 0;

@@ -1,6 +1,7 @@
 // An import profile as the form edits it (strings, rows in order) and as the
 // API takes it (a header → field record), with the problems that keep a draft
 // from being saved.
+import { headerKey } from '../../lib/rides/headers';
 import { NAMED_CHANNELS, NUMBERED_CHANNELS, type CanonicalField } from '../../lib/rides/types';
 import { channelLabel } from './format';
 
@@ -78,7 +79,6 @@ export function draftOf(p: SavedProfile, nextKey: () => string): ProfileDraft {
   };
 }
 
-const headerKey = (h: string) => h.trim().toLowerCase();
 
 /** The mapping of the draft's complete rows; half-filled rows are left out (and reported by `draftProblems`). */
 export function mappingOf(d: ProfileDraft): ProfileMapping {

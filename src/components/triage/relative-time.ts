@@ -14,7 +14,8 @@ export function daysAgo(iso: string, now: Date): number {
 function spanWords(days: number): string {
   if (days < 14) return `${days} ${days === 1 ? 'day' : 'days'}`;
   if (days < 60) return `${Math.floor(days / 7)} weeks`;
-  const months = Math.floor(days / 30.44);
+  // From two months on, so that an older date never reads as a shorter span than "8 weeks".
+  const months = Math.max(2, Math.floor(days / 30.44));
   return `${months} ${months === 1 ? 'month' : 'months'}`;
 }
 
