@@ -56,7 +56,7 @@ describe('the client page', () => {
     await openClient(page, 'Jonah Pryce');
     await expect(page.getByRole('heading', { level: 1 }).textContent()).resolves.toBe('Jonah Pryce');
     await expect(page.getByText('T4 AIS A').count()).resolves.toBe(1);
-    await page.getByText('Prescription in effect').waitFor();
+    await page.getByText('Prescription in effect', { exact: true }).waitFor();
     await page.getByText(/\d+ sessions a week, \d+ min each/).first().waitFor();
 
     await page.locator('#progress canvas').nth(3).waitFor();

@@ -11,13 +11,15 @@ import { TextField } from '../ui/Field';
  * sign-in page itself, which signs in on the server.
  */
 export default function SignInForm({ next, initialEmail = '', initialError = null }: { next: string | null; initialEmail?: string; initialError?: string | null }) {
-  const [email, setEmail] = useState(initialEmail);
-  const [password, setPassword] = useState('');
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<ApiError | null>(initialError ? new ApiError(401, { code: 'bad_credentials', message: initialError }) : null);
 
-  async function submit(e: FormEvent) {
+  async function submit(e: FormEvent<HTMLFormElement>) {
     e.preventDefault();
+    // Read from the form itself: the fields are uncontrolled, so what was typed before hydration is kept.
+    const form = new FormData(e.currentTarget);
+    const email = String(form.get('email') ?? '');
+    const password = String(form.get('password') ?? '');
     setBusy(true);
     setError(null);
     try {
@@ -36,8 +38,8 @@ export default function SignInForm({ next, initialEmail = '', initialError = nul
           {error.message}
         </Alert>
       )}
-      <TextField label="E-mail" type="email" name="email" autoComplete="username" value={email} onChange={(e) => setEmail(e.target.value)} error={error?.field('email')} />
-      <TextField label="Password" type="password" name="password" autoComplete="current-password" value={password} onChange={(e) => setPassword(e.target.value)} error={error?.field('password')} />
+      <TextField label="E-mail" type="email" name="email" autoComplete="username" defaultValue={initialEmail} error={error?.field('email')} />
+      <TextField label="Password" type="password" name="password" autoComplete="current-password" error={error?.field('password')} />
       <div className="flex flex-wrap items-center justify-between gap-3">
         <button type="submit" className="btn btn-primary" disabled={busy} aria-busy={busy || undefined}>
           {busy ? 'Signing in…' : 'Sign in'}
