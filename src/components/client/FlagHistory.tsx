@@ -6,7 +6,8 @@ import { EmptyState } from '../ui/EmptyState';
 import { TextAreaField, TextField } from '../ui/Field';
 import { Loaded } from '../ui/Loading';
 import { addDays, dayLabel, instantLabel } from './dates';
-import { eventLabel, FLAG_KIND_LABELS, isLive, SEVERITY_LABELS, SEVERITY_TONES, STATE_LABELS } from './flag-labels';
+import { FLAG_KIND_WORDS, FLAG_SEVERITY_WORDS } from '../../lib/flags/words';
+import { eventLabel, isLive, SEVERITY_TONES, STATE_LABELS } from './flag-labels';
 import type { FlagWithHistory } from './types';
 
 type Action = 'acknowledge' | 'snooze' | 'resolve';
@@ -29,7 +30,7 @@ function FlagActions({ flag, today, onDone }: { flag: FlagWithHistory; today: st
     setError(null);
     try {
       await api('POST', `/api/flags/${flag.id}`, { action, ...(note.trim() ? { note } : {}), ...(action === 'snooze' ? { until } : {}) });
-      onDone(`${FLAG_KIND_LABELS[flag.kind]}: ${DONE[action]}`);
+      onDone(`${FLAG_KIND_WORDS[flag.kind]}: ${DONE[action]}`);
     } catch (err) {
       setError(err as ApiError);
     } finally {
@@ -76,9 +77,9 @@ function FlagCard({ flag, locale, timeZone, today, onDone }: Shared & { flag: Fl
     <article aria-labelledby={`flag-${flag.id}`} className="card space-y-3">
       <div className="flex flex-wrap items-center gap-2">
         <h3 id={`flag-${flag.id}`} className="mr-2 text-lg">
-          {FLAG_KIND_LABELS[flag.kind]}
+          {FLAG_KIND_WORDS[flag.kind]}
         </h3>
-        <span className={`rounded-full border px-3 py-0.5 text-sm font-semibold ${SEVERITY_TONES[flag.severity]}`}>{SEVERITY_LABELS[flag.severity]}</span>
+        <span className={`rounded-full border px-3 py-0.5 text-sm font-semibold ${SEVERITY_TONES[flag.severity]}`}>{FLAG_SEVERITY_WORDS[flag.severity]}</span>
         <span className="rounded-full border border-line-strong bg-surface px-3 py-0.5 text-sm font-semibold">{STATE_LABELS[flag.state]}</span>
         {snoozed && <span className="rounded-full border border-slate bg-slate-tint px-3 py-0.5 text-sm font-semibold text-slate">Snoozed until {dayLabel(flag.snoozedUntil!, locale)}</span>}
       </div>

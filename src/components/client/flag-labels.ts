@@ -1,17 +1,5 @@
 // Plain words for flag codes and the events in a flag's history.
-import type { FlagKind, FlagSeverity, FlagState } from '../../lib/flags/types';
-
-export const FLAG_KIND_LABELS: Record<FlagKind, string> = {
-  missed_sessions: 'Missed sessions',
-  power_drop: 'Power drop',
-  current_rise: 'Current rise',
-  short_session: 'Short sessions',
-  bp_rise: 'Blood pressure rise',
-  bp_drop: 'Blood pressure drop',
-  skin_concern: 'Skin concern',
-};
-
-export const SEVERITY_LABELS: Record<FlagSeverity, string> = { urgent: 'Urgent', review: 'Review', info: 'For information' };
+import type { FlagSeverity, FlagState } from '../../lib/flags/types';
 
 /** Badge colours: text and tint pairs of global.css that keep 4.5:1. */
 export const SEVERITY_TONES: Record<FlagSeverity, string> = {

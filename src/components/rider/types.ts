@@ -1,6 +1,7 @@
 // The JSON the rider and carer pages read: GET /api/clients/:id/week,
 // /progress, /goal and /api/routes.
 import type { RoutePoint } from '../../lib/goals/route';
+import type { WeekProgress } from '../../lib/rider/weekly-progress';
 
 export interface ClientChoice {
   id: string;
@@ -46,14 +47,7 @@ export interface WeekData {
   lastUploadAt: string | null;
 }
 
-export interface ProgressWeek {
-  isoWeek: string;
-  monday: string;
-  sessions: number;
-  activeMinutes: number;
-  distanceM: number;
-  meanPowerW: number | null;
-}
+export type ProgressWeek = WeekProgress;
 
 export interface ProgressData {
   weeks: ProgressWeek[];

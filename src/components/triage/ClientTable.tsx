@@ -8,7 +8,7 @@ import {
 } from '@tanstack/react-table';
 import { useId, useMemo, type ReactNode } from 'react';
 import { Adherence, LastSession, PowerTrend, Streak } from './ClientFigures';
-import { severityRank } from './flag-words';
+import { severityRank } from '../../lib/flags/words';
 import type { ClientRow } from './types';
 
 const col = createColumnHelper<ClientRow>();

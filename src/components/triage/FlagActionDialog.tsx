@@ -3,7 +3,7 @@ import { api, ApiError } from '../api';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { TextAreaField, TextField } from '../ui/Field';
-import { KIND_WORDS } from './flag-words';
+import { FLAG_KIND_WORDS } from '../../lib/flags/words';
 import { localDateAfter, longDate } from './relative-time';
 import { SeverityChip } from './SeverityChip';
 import type { FlagAction, FlagItem } from './types';
@@ -34,7 +34,7 @@ const WORDING: Record<FlagAction, { title: string; explain: string; confirm: str
 
 /** The sentence announced once an action has been saved. */
 export function doneMessage({ flag, clientName, action }: ActionTarget, until?: string): string {
-  const what = `${KIND_WORDS[flag.kind]} for ${clientName}`;
+  const what = `${FLAG_KIND_WORDS[flag.kind]} for ${clientName}`;
   if (action === 'snooze') return `Snoozed: ${what}, until ${longDate(`${until}T12:00:00`)}. It has left the open list.`;
   return `${action === 'acknowledge' ? 'Acknowledged' : 'Resolved'}: ${what}. It has left the open list.`;
 }
@@ -116,7 +116,7 @@ export function FlagActionDialog({
             <p className="flex flex-wrap items-center gap-2">
               <SeverityChip severity={target.flag.severity} />
               <span className="font-semibold">
-                {KIND_WORDS[target.flag.kind]} · {target.clientName}
+                {FLAG_KIND_WORDS[target.flag.kind]} · {target.clientName}
               </span>
             </p>
             <p>{target.flag.reason}</p>

@@ -1,6 +1,6 @@
 import { FLAG_KINDS, FLAG_SEVERITIES } from '../../lib/flags/types';
 import { SelectField, TextField } from '../ui/Field';
-import { KIND_WORDS, SEVERITY_WORDS } from './flag-words';
+import { FLAG_KIND_WORDS, FLAG_SEVERITY_WORDS } from '../../lib/flags/words';
 import type { RowFilter } from './filter';
 import { flagCounts } from './filter';
 import type { ClientRow } from './types';
@@ -37,7 +37,7 @@ export function FlagFilters({
             onChange={(e) => onChange({ ...filter, severity: e.target.value as RowFilter['severity'] })}
             options={[
               { value: '', label: 'All severities' },
-              ...FLAG_SEVERITIES.map((s) => ({ value: s, label: `${SEVERITY_WORDS[s]} (${counts.severity.get(s) ?? 0})` })),
+              ...FLAG_SEVERITIES.map((s) => ({ value: s, label: `${FLAG_SEVERITY_WORDS[s]} (${counts.severity.get(s) ?? 0})` })),
             ]}
           />
           <SelectField
@@ -47,7 +47,7 @@ export function FlagFilters({
             onChange={(e) => onChange({ ...filter, kind: e.target.value as RowFilter['kind'] })}
             options={[
               { value: '', label: 'All kinds' },
-              ...FLAG_KINDS.map((k) => ({ value: k, label: `${KIND_WORDS[k]} (${counts.kind.get(k) ?? 0})` })),
+              ...FLAG_KINDS.map((k) => ({ value: k, label: `${FLAG_KIND_WORDS[k]} (${counts.kind.get(k) ?? 0})` })),
             ]}
           />
         </>

@@ -1,5 +1,5 @@
 import { FLAG_SEVERITIES } from '../../lib/flags/types';
-import { KIND_WORDS } from './flag-words';
+import { FLAG_KIND_WORDS } from '../../lib/flags/words';
 import { SeverityChip } from './SeverityChip';
 import type { ClientRow } from './types';
 
@@ -23,7 +23,7 @@ export function FlagSummary({ row }: { row: ClientRow }) {
         return (
           <li key={severity} className="flex flex-wrap items-center gap-x-2 gap-y-1">
             <SeverityChip severity={severity} count={flags.length} />
-            <span>{[...new Set(flags.map((f) => KIND_WORDS[f.kind]))].join(', ')}</span>
+            <span>{[...new Set(flags.map((f) => FLAG_KIND_WORDS[f.kind]))].join(', ')}</span>
           </li>
         );
       })}

@@ -1,5 +1,5 @@
 import type { FlagSeverity } from '../../lib/flags/types';
-import { SEVERITY_WORDS } from './flag-words';
+import { FLAG_SEVERITY_WORDS } from '../../lib/flags/words';
 
 // Severity is told by word and shape (triangle, circle, square), colour only adds to it.
 const TONE: Record<FlagSeverity, string> = {
@@ -25,7 +25,7 @@ export function SeverityIcon({ severity }: { severity: FlagSeverity }) {
 
 /** "Urgent", or with a count "2 urgent". */
 export function SeverityChip({ severity, count }: { severity: FlagSeverity; count?: number }) {
-  const word = SEVERITY_WORDS[severity];
+  const word = FLAG_SEVERITY_WORDS[severity];
   return (
     <span className={`inline-flex items-center gap-1.5 rounded-full border px-2.5 py-0.5 text-sm font-semibold whitespace-nowrap ${TONE[severity]}`}>
       <SeverityIcon severity={severity} />

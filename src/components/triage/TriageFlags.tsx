@@ -1,5 +1,5 @@
 import { Button } from '../ui/Button';
-import { KIND_WORDS } from './flag-words';
+import { FLAG_KIND_WORDS } from '../../lib/flags/words';
 import { longDate, openFor } from './relative-time';
 import { SeverityChip } from './SeverityChip';
 import type { ClientRow, FlagAction, FlagItem } from './types';
@@ -15,7 +15,7 @@ export function TriageFlags({ row, now, onAction }: { row: ClientRow; now: Date;
   return (
     <ul className="space-y-3 lg:min-w-[22rem]" aria-label={`Open flags for ${row.clientName}`}>
       {row.flags.map((flag) => {
-        const kind = KIND_WORDS[flag.kind];
+        const kind = FLAG_KIND_WORDS[flag.kind];
         return (
           <li key={flag.id} data-testid="flag" data-severity={flag.severity} data-kind={flag.kind} className="rounded-lg border border-line bg-surface p-3">
             <p className="flex flex-wrap items-center gap-x-2 gap-y-1">

@@ -2,7 +2,7 @@ import type { Knex } from 'knex';
 import { config } from '../config';
 import type { ClientRow, FlagRow } from '../db/tables';
 import { enqueueEmail } from '../mail/outbox';
-import { FLAG_KIND_WORDS } from './words';
+import { FLAG_KIND_WORDS } from '../flags/words';
 import { notificationEmail } from './compose';
 import { therapistsOf } from './recipients';
 

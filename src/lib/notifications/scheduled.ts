@@ -17,7 +17,7 @@ import { loadHistory } from '../supervision/history';
 import { isoWeekOf, localDate } from '../time/iso-week';
 import { notificationEmail, type Recipient } from './compose';
 import { riderAndCarers, riderOnly, therapistsOf } from './recipients';
-import { FLAG_KIND_WORDS } from './words';
+import { FLAG_KIND_WORDS } from '../flags/words';
 
 export const DIGEST_HOUR = 7;
 export const REMINDER_HOUR = 18;

@@ -5,7 +5,7 @@ import type { RideRow } from '../db/tables';
 import { notFound } from '../http/errors';
 import { decodeSeries } from '../rides/series-codec';
 import { chartSeries } from './chart-series';
-import { sessionListItem, summaryOf } from './view';
+import { sessionListItem } from './view';
 
 export const sessionsQuerySchema = z.object({
   limit: z.coerce.number().int().min(1).max(200).default(50),
@@ -32,13 +32,5 @@ export async function readSession(ctx: RequestContext, id: string, points: numbe
   if (!row) throw notFound('That session');
   await accessClient(ctx, row.client_id, 'read', 'session.view', { sessionId: id });
   const stored = await ctx.knex('ride_series').where({ ride_id: id }).first('data');
-  return {
-    id: row.id,
-    clientId: row.client_id,
-    uploadId: row.upload_id,
-    startedAt: row.started_at.toISOString(),
-    startedAtSource: row.started_at_source,
-    summary: summaryOf(row),
-    series: stored ? chartSeries(decodeSeries(stored.data), points) : null,
-  };
+  return { ...sessionListItem(row), series: stored ? chartSeries(decodeSeries(stored.data), points) : null };
 }

@@ -1,8 +1,7 @@
-// Plain words for flag kinds and severities, shared by triage, the caseload and
-// any page that lists flags.
-import { FLAG_SEVERITIES, type FlagKind, type FlagSeverity } from '../../lib/flags/types';
+// The plain words for flag kinds and severities, the same in every page and e-mail.
+import { FLAG_SEVERITIES, type FlagKind, type FlagSeverity } from './types';
 
-export const KIND_WORDS: Record<FlagKind, string> = {
+export const FLAG_KIND_WORDS: Record<FlagKind, string> = {
   missed_sessions: 'Missed sessions',
   power_drop: 'Power drop',
   current_rise: 'Current rise',
@@ -12,7 +11,7 @@ export const KIND_WORDS: Record<FlagKind, string> = {
   skin_concern: 'Skin concern',
 };
 
-export const SEVERITY_WORDS: Record<FlagSeverity, string> = {
+export const FLAG_SEVERITY_WORDS: Record<FlagSeverity, string> = {
   urgent: 'Urgent',
   review: 'Review',
   info: 'Info',
