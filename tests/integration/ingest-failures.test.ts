@@ -58,10 +58,13 @@ afterEach(async () => {
 });
 afterAll(closeDb);
 
-const tsx = path.join(root, 'node_modules', '.bin', 'tsx');
+// The worker runs in one process (node with tsx's loader, not the tsx
+// launcher, which keeps a child alive when it is killed) so that SIGKILL
+// really ends it.
+const worker = ['--import', 'tsx', 'src/worker.ts'];
 
 describe('a worker killed mid-job', () => {
-  it('loses nothing: after a restart the job runs again and the file becomes a session', async () => {
+  it('loses nothing: after a restart the job runs again and the file becomes a session', { timeout: 150_000 }, async () => {
     const schema = `pgboss_crash_${randomUUID().slice(0, 8)}`;
     const workerEnv = { KINLOOP_QUEUE_SCHEMA: schema, KINLOOP_QUEUE_MAINTENANCE_S: '1' };
     // A stored file and its queued upload, as POST /api/uploads leaves them.
@@ -72,7 +75,7 @@ describe('a worker killed mid-job', () => {
       .insert({ client_id: world.clientId, clinic_id: world.clinicId, uploaded_by: world.users.carer.id, original_name: 'crash.csv', byte_size: content.length, sha256: randomUUID(), storage_key: key, status: 'queued', enqueued_at: new Date() })
       .returning('id');
 
-    const first = await start(tsx, ['src/worker.ts'], { ...workerEnv, KINLOOP_PARSE_HOLD_MS: '600000' }, /kinloop worker ready/);
+    const first = await start(process.execPath, worker, { ...workerEnv, KINLOOP_PARSE_HOLD_MS: '600000' }, /kinloop worker ready/);
     const boss = new PgBoss({ connectionString: process.env.DATABASE_URL!, schema });
     await boss.start();
     try {
@@ -85,7 +88,7 @@ describe('a worker killed mid-job', () => {
       await stop(first, 'SIGKILL');
       expect((await world.knex('uploads').where({ id: upload.id }).first()).status).toBe('queued');
 
-      await start(tsx, ['src/worker.ts'], workerEnv, /kinloop worker ready/);
+      await start(process.execPath, worker, workerEnv, /kinloop worker ready/);
       let row = await world.knex('uploads').where({ id: upload.id }).first();
       const until = Date.now() + 90_000;
       while (row.status === 'queued' && Date.now() < until) {

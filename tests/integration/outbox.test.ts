@@ -62,8 +62,9 @@ afterAll(async () => {
 describe('outbox', () => {
   it('retries after the mail server was down and comes back, and sends each message exactly once with two workers', async () => {
     const workerEnv = { DATABASE_URL: dbUrl, SMTP_URL: `smtp://127.0.0.1:${smtpPort}`, KINLOOP_QUEUE_SCHEMA: 'pgboss', KINLOOP_OUTBOX_RETRY_MS: '500' };
-    const tsx = path.join(root, 'node_modules', '.bin', 'tsx');
-    await Promise.all([start(['src/worker.ts'], workerEnv, /kinloop worker ready/, tsx), start(['src/worker.ts'], workerEnv, /kinloop worker ready/, tsx)]);
+    // node with tsx's loader: one process per worker, so that stopping it stops it.
+    const worker = ['--import', 'tsx', 'src/worker.ts'];
+    await Promise.all([start(worker, workerEnv, /kinloop worker ready/), start(worker, workerEnv, /kinloop worker ready/)]);
     const messages = Array.from({ length: 12 }, (_, i) => ({ kind: 'test', to_address: `person${i}@example.test`, subject: `Message ${i}`, text_body: `Body ${i}`, html_body: `<p>Body ${i}</p>` }));
     await knex('outbox_emails').insert(messages);
 
