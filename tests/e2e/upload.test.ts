@@ -157,7 +157,12 @@ describe('uploading ride files', () => {
     expect(reached).toBe(true);
     const outline = await page.evaluate(() => getComputedStyle(document.activeElement!).outlineStyle);
     expect(outline).toBe('solid');
-    const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.keyboard.press('Enter')]);
+    // Playwright turns on file-chooser interception with a round trip of its own;
+    // one more round trip to the page before pressing makes sure it is on.
+    const chooserOpened = page.waitForEvent('filechooser');
+    await page.evaluate(() => new Promise((r) => requestAnimationFrame(r)));
+    await page.keyboard.press('Enter');
+    const chooser = await chooserOpened;
     expect(chooser.isMultiple()).toBe(true);
     const [ride] = ridesOfThisRun();
     await chooser.setFiles({ name: ride.name, mimeType: 'text/csv', buffer: Buffer.from(ride.text) });
