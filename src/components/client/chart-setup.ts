@@ -1,25 +1,11 @@
 // What the client page's charts need from chart.js, registered once, and the
 // palette of global.css so the charts match the page.
+import { PALETTE } from '../palette';
 import { BarElement, CategoryScale, Chart, Filler, Legend, LinearScale, LineElement, PointElement, Tooltip, type ChartOptions, type ChartType, type LegendItem } from 'chart.js';
 
 Chart.register(CategoryScale, LinearScale, BarElement, LineElement, PointElement, Filler, Tooltip, Legend);
 
-export const COLOURS = {
-  ink: '#1d2a2f',
-  inkSoft: '#4b5b61',
-  line: '#d6d1c4',
-  lineStrong: '#8f8a7d',
-  lagoon: '#1e5a5f',
-  lagoonTint: '#e3efee',
-  ochre: '#7a4f05',
-  ochreTint: '#fbf0d9',
-  brick: '#9c2f29',
-  slate: '#3a5378',
-  slateTint: '#e7edf6',
-  moss: '#2f6133',
-  mossTint: '#e6f1e5',
-  surface: '#ffffff',
-} as const;
+export const COLOURS = PALETTE;
 
 /** The key shows lines as short lines and bars and filled bands as blocks, whatever the points look like. */
 function keyItems(chart: Chart): LegendItem[] {

@@ -1,10 +1,11 @@
 import { useId } from 'react';
 import { drawRoute } from './route-drawing';
 import type { Goal } from './types';
+import { PALETTE } from '../palette';
 
-const LAGOON = '#1e5a5f';
-const AHEAD = '#8f8a7d';
-const OCHRE = '#7a4f05';
+const LAGOON = PALETTE.lagoon;
+const AHEAD = PALETTE.lineStrong;
+const OCHRE = PALETTE.ochre;
 
 /** The goal's route as a line drawing with the milestones and the rider's position, described in words too. */
 export function RouteDrawing({ goal, description }: { goal: Goal; description: string }) {

@@ -7,9 +7,10 @@ import { minuteRows } from './minute-rows';
 import { MinuteTable } from './MinuteTable';
 import { PhaseKey } from './PhaseKey';
 import type { ChartSeries, Point } from './types';
+import { PALETTE } from '../palette';
 
-const CADENCE = '#1e5a5f';
-const POWER = '#9c2f29';
+const CADENCE = PALETTE.lagoon;
+const POWER = PALETTE.brick;
 
 const NONE: Point[] = [];
 

@@ -1,6 +1,7 @@
 // What the session charts need from chart.js, registered once, and the plugin
 // that shades the phases behind the lines.
 import { Chart, Legend, LinearScale, LineElement, PointElement, Tooltip, type ChartOptions, type Plugin } from 'chart.js';
+import { PALETTE } from '../palette';
 import { clock } from './format';
 import { phaseRanges } from './minute-rows';
 import type { ChartSeries } from './types';
@@ -9,13 +10,13 @@ Chart.register(LinearScale, PointElement, LineElement, Tooltip, Legend);
 
 /** The theme's tints (global.css), so the shading matches the legend swatches on the page. */
 export const PHASE_FILL: Record<string, string> = {
-  passive: '#e7edf6',
-  active: '#e3efee',
-  cooldown: '#fbf0d9',
+  passive: PALETTE.slateTint,
+  active: PALETTE.lagoonTint,
+  cooldown: PALETTE.ochreTint,
 };
 
-export const INK = '#1d2a2f';
-export const LINE = '#d6d1c4';
+export const INK = PALETTE.ink;
+export const LINE = PALETTE.line;
 
 /** Fills each phase's time range across the plot area, beneath the grid and the lines. */
 export function phaseBands(phases: ChartSeries['phases']): Plugin<'line'> {

@@ -13,7 +13,7 @@ import { nextSessionDue } from '../rider/next-session';
 import { reminderDue } from '../rider/reminder';
 import { readGoalFor } from '../riders/goal-progress';
 import { riderPauses } from '../riders/sessions';
-import { loadHistory } from '../supervision/history';
+import { loadHistories } from '../supervision/history';
 import { isoWeekOf, localDate } from '../time/iso-week';
 import { notificationEmail, type Recipient } from './compose';
 import { riderAndCarers, riderOnly, therapistsOf } from './recipients';
@@ -68,11 +68,10 @@ async function digests(knex: Knex, clients: ClientRow[], now: Date): Promise<num
 
 async function reminders(knex: Knex, clients: ClientRow[], now: Date): Promise<number> {
   let n = 0;
-  for (const client of clients) {
-    const local = DateTime.fromJSDate(now).setZone(client.time_zone);
-    if (local.hour < REMINDER_HOUR) continue;
-    const h = await loadHistory(knex, client);
-    const today = local.toISODate()!;
+  const localOf = (c: ClientRow) => DateTime.fromJSDate(now).setZone(c.time_zone);
+  for (const h of await loadHistories(knex, clients.filter((c) => localOf(c).hour >= REMINDER_HOUR))) {
+    const client = h.client;
+    const today = localOf(client).toISODate()!;
     const version = prescriptionTimeline(h.prescriptions).versionOn(today);
     if (!version) continue;
     const adherence = computeAdherence({ timeZone: client.time_zone, now: now.toISOString(), prescriptions: h.prescriptions, pauses: h.pauses, sessions: h.sessions, countThresholdPct: h.thresholds.countThresholdPct, weeks: 1 });
@@ -103,12 +102,13 @@ async function reminders(knex: Knex, clients: ClientRow[], now: Date): Promise<n
 
 async function weeklySummaries(knex: Knex, clients: ClientRow[], now: Date): Promise<number> {
   let n = 0;
-  for (const client of clients) {
-    const local = DateTime.fromJSDate(now).setZone(client.time_zone);
-    if (local.weekday !== 1 || local.hour < WEEKLY_HOUR || !client.user_id) continue;
+  const localOf = (c: ClientRow) => DateTime.fromJSDate(now).setZone(c.time_zone);
+  const due = clients.filter((c) => c.user_id && localOf(c).weekday === 1 && localOf(c).hour >= WEEKLY_HOUR);
+  for (const h of await loadHistories(knex, due)) {
+    const client = h.client;
+    const local = localOf(client);
     const recipients = await riderOnly(knex, client, 'weekly_summary');
     if (!recipients.length) continue;
-    const h = await loadHistory(knex, client);
     const adherence = computeAdherence({ timeZone: client.time_zone, now: now.toISOString(), prescriptions: h.prescriptions, pauses: h.pauses, sessions: h.sessions, countThresholdPct: h.thresholds.countThresholdPct, weeks: 2 });
     const week = adherence.weeks[0];
     const lastWeek = isoWeekOf(local.minus({ weeks: 1 }).toISODate()!, client.time_zone);

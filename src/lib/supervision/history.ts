@@ -17,26 +17,41 @@ export function activePauses(rows: PauseRow[]): Pause[] {
 }
 
 export async function loadHistory(knex: Knex, client: ClientRow): Promise<ClientHistory> {
-  const [prescriptions, pauses, rides, clinic] = await Promise.all([
-    knex<PrescriptionRow>('prescriptions').where({ client_id: client.id }).orderBy('version'),
-    knex<PauseRow>('pauses').where({ client_id: client.id }).orderBy('starts_on'),
-    knex<RideRow>('rides').where({ client_id: client.id }).orderBy('started_at'),
-    knex('clinics').where({ id: client.clinic_id }).first('flag_thresholds'),
+  return (await loadHistories(knex, [client]))[0];
+}
+
+/**
+ * The histories of several clients in four queries, whatever their number:
+ * triage, the caseload and the hourly mail judge a whole clinic at once.
+ */
+export async function loadHistories(knex: Knex, clients: ClientRow[]): Promise<ClientHistory[]> {
+  if (!clients.length) return [];
+  const ids = clients.map((c) => c.id);
+  const [prescriptions, pauses, rides, clinics] = await Promise.all([
+    knex<PrescriptionRow>('prescriptions').whereIn('client_id', ids).orderBy('version'),
+    knex<PauseRow>('pauses').whereIn('client_id', ids).orderBy('starts_on'),
+    knex<RideRow>('rides').whereIn('client_id', ids).orderBy('started_at'),
+    knex('clinics').whereIn('id', [...new Set(clients.map((c) => c.clinic_id))]).select('id', 'flag_thresholds'),
   ]);
-  return {
+  const thresholds = new Map(clinics.map((c) => [c.id as string, flagThresholdsSchema.parse(c.flag_thresholds ?? {})]));
+  return clients.map((client) => ({
     client,
-    prescriptions: prescriptions.map((p) => ({ effectiveFrom: p.effective_from, sessionsPerWeek: p.sessions_per_week, minutesPerSession: p.minutes_per_session, row: p })),
-    pauses: activePauses(pauses),
-    sessions: rides.map((r) => ({
-      id: r.id,
-      startedAt: r.started_at.toISOString(),
-      durationS: r.duration_s,
-      meanPowerW: r.mean_power_w,
-      currentPerWattMaPerW: r.current_per_watt_ma_per_w,
-      row: r,
-    })),
-    thresholds: flagThresholdsSchema.parse(clinic?.flag_thresholds ?? {}),
-  };
+    prescriptions: prescriptions
+      .filter((p) => p.client_id === client.id)
+      .map((p) => ({ effectiveFrom: p.effective_from, sessionsPerWeek: p.sessions_per_week, minutesPerSession: p.minutes_per_session, row: p })),
+    pauses: activePauses(pauses.filter((p) => p.client_id === client.id)),
+    sessions: rides
+      .filter((r) => r.client_id === client.id)
+      .map((r) => ({
+        id: r.id,
+        startedAt: r.started_at.toISOString(),
+        durationS: r.duration_s,
+        meanPowerW: r.mean_power_w,
+        currentPerWattMaPerW: r.current_per_watt_ma_per_w,
+        row: r,
+      })),
+    thresholds: thresholds.get(client.clinic_id) ?? flagThresholdsSchema.parse({}),
+  }));
 }
 
 export function flagInput(h: ClientHistory, now: Date): FlagInput {

@@ -5,7 +5,7 @@ import { computeAdherence } from '../adherence';
 import { powerTrendPerWeek } from '../analytics/trend';
 import type { ClientRow } from '../db/tables';
 import type { ClientHistory } from './history';
-import { loadHistory } from './history';
+import { loadHistories } from './history';
 
 export interface ClientOverview {
   lastSessionAt: string | null;
@@ -37,7 +37,6 @@ export function overviewOf(h: ClientHistory, now: Date, weeks = 12) {
 const roundTrend = (v: number | null) => (v === null ? null : Math.round(v * 100) / 100);
 
 export async function overviews(knex: Knex, clients: ClientRow[], now: Date): Promise<Map<string, ClientOverview>> {
-  const out = new Map<string, ClientOverview>();
-  for (const c of clients) out.set(c.id, overviewOf(await loadHistory(knex, c), now).overview);
-  return out;
+  const histories = await loadHistories(knex, clients);
+  return new Map(histories.map((h) => [h.client.id, overviewOf(h, now).overview]));
 }
