@@ -74,10 +74,12 @@ describe('outbox', () => {
     expect(await unsent()).toBe(12);
 
     const smtp = await startSmtp();
+    // The fake writes a message to disk before it answers the worker, and the
+    // worker marks the row sent only after that answer: wait for both.
     const deadline = Date.now() + 40_000;
-    while (Date.now() < deadline && received() < 12) await new Promise((r) => setTimeout(r, 250));
-    expect(received()).toBe(12);
+    while (Date.now() < deadline && (received() < 12 || (await unsent()) > 0)) await new Promise((r) => setTimeout(r, 250));
     expect(await unsent()).toBe(0);
+    expect(received()).toBe(12);
 
     // Stopped again and restarted: new mail waits, then goes, old mail is not resent.
     await stop(smtp);
