@@ -27,12 +27,13 @@ export async function loadHistory(knex: Knex, client: ClientRow): Promise<Client
 export async function loadHistories(knex: Knex, clients: ClientRow[]): Promise<ClientHistory[]> {
   if (!clients.length) return [];
   const ids = clients.map((c) => c.id);
-  const [prescriptions, pauses, rides, clinics] = await Promise.all([
-    knex<PrescriptionRow>('prescriptions').whereIn('client_id', ids).orderBy('version'),
-    knex<PauseRow>('pauses').whereIn('client_id', ids).orderBy('starts_on'),
-    knex<RideRow>('rides').whereIn('client_id', ids).orderBy('started_at'),
-    knex('clinics').whereIn('id', [...new Set(clients.map((c) => c.clinic_id))]).select('id', 'flag_thresholds'),
-  ]);
+  // One after another, not in parallel: the flag judge passes a transaction,
+  // which is one connection, and pg refuses overlapping queries on one
+  // connection from its next major on.
+  const prescriptions = await knex<PrescriptionRow>('prescriptions').whereIn('client_id', ids).orderBy('version');
+  const pauses = await knex<PauseRow>('pauses').whereIn('client_id', ids).orderBy('starts_on');
+  const rides = await knex<RideRow>('rides').whereIn('client_id', ids).orderBy('started_at');
+  const clinics = await knex('clinics').whereIn('id', [...new Set(clients.map((c) => c.clinic_id))]).select('id', 'flag_thresholds');
   const thresholds = new Map(clinics.map((c) => [c.id as string, flagThresholdsSchema.parse(c.flag_thresholds ?? {})]));
   return clients.map((client) => ({
     client,
