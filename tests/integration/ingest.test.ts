@@ -101,6 +101,16 @@ describe('uploading ride files', () => {
     expect(session.body.summary.warnings.join(' ')).toMatch(/last-modified/);
   });
 
+  it('keeps a start the cycle dated in the future as written, and asks for the cycle’s clock to be checked', async () => {
+    const carer = await world.as('carer');
+    const startedAt = new Date(Date.now() + 3 * 86_400_000).toISOString();
+    const [r] = await uploadAndWait(carer, world.clientId, [{ name: 'fast-clock.csv', content: rideCsv({ startedAt }) }]);
+    expect(r.status).toBe('accepted');
+    const session = await carer.json('GET', `/api/sessions/${r.sessionId}`);
+    expect(session.body.startedAt).toBe(startedAt);
+    expect(session.body.summary.warnings.join(' ')).toMatch(/after the file was uploaded: check the date and time set on the cycle/);
+  });
+
   it('reprocessing replaces the session in place, without a second one', async () => {
     const carer = await world.as('carer');
     const therapist = await world.as('therapist');

@@ -8,6 +8,7 @@ import { encodeSeries, SERIES_FORMAT } from '../rides/series-codec';
 import type { ImportProfile, ParsedRide } from '../rides/types';
 import { getObjectBytes } from '../storage/s3';
 import { notifyRidesChanged } from './ride-events';
+import { sessionStart } from './start-time';
 
 /** Two sessions of one client starting this close together are the same ride. */
 export const NEAR_DUPLICATE_MS = 2 * 60_000;
@@ -46,8 +47,9 @@ export async function processUpload(knex: Knex, uploadId: string): Promise<Proce
     return 'rejected';
   }
 
-  const { startedAt, source, warning } = startTime(parsed, upload);
-  const warnings = warning ? [...parsed.summary.warnings, warning] : parsed.summary.warnings;
+  const start = sessionStart({ fileStartedAt: parsed.summary.startedAt, fallbackStartedAt: upload.fallback_started_at, uploadedAt: upload.uploaded_at, timeZone: client.time_zone });
+  const { startedAt, source } = start;
+  const warnings = [...parsed.summary.warnings, ...start.warnings];
   const outcome = await knex.transaction(async (trx) => {
     // One client's files are placed one at a time, so two copies of a ride
     // parsed at once cannot both become sessions.
@@ -73,15 +75,6 @@ export async function processUpload(knex: Knex, uploadId: string): Promise<Proce
 
 async function profileById(knex: Knex, id: string): Promise<(ImportProfileRow & { mapping: ImportProfile }) | null> {
   return (await knex<ImportProfileRow>('import_profiles').where({ id }).whereNull('archived_at').first()) ?? null;
-}
-
-/** The session's start: from the file, else the file's last-modified time sent by the page, else the upload time. */
-function startTime(parsed: ParsedRide, upload: UploadRow): { startedAt: Date; source: StartedAtSource; warning: string | null } {
-  if (parsed.summary.startedAt) return { startedAt: new Date(parsed.summary.startedAt), source: 'file', warning: null };
-  if (upload.fallback_started_at) {
-    return { startedAt: upload.fallback_started_at, source: 'file_modified', warning: 'The file has no start time; the session date is the file’s last-modified time.' };
-  }
-  return { startedAt: upload.uploaded_at, source: 'upload_time', warning: 'The file has no start time; the session date is the time it was uploaded.' };
 }
 
 /** Writes the session and its series; a reprocessed upload replaces its own session in place. */
