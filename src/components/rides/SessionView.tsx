@@ -40,12 +40,15 @@ export default function SessionView({ session, startedLabel, timeZone }: { sessi
         <p className="text-ink-soft">The samples of this session are not stored, so there are no charts; the figures above still apply.</p>
       )}
 
-      <section aria-labelledby="channels-h" className="space-y-3">
-        <h2 id="channels-h" className="text-xl">
-          Channels
-        </h2>
-        <ChannelTable channels={summary.channels} />
-      </section>
+      {/* Without channels the current chart already says so; say it once. */}
+      {(Object.keys(summary.channels).length > 0 || !series) && (
+        <section aria-labelledby="channels-h" className="space-y-3">
+          <h2 id="channels-h" className="text-xl">
+            Channels
+          </h2>
+          <ChannelTable channels={summary.channels} />
+        </section>
+      )}
 
       <section aria-labelledby="warnings-h" className="space-y-3">
         <h2 id="warnings-h" className="text-xl">
