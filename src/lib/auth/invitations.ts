@@ -70,7 +70,7 @@ export async function createInvitation(ctx: RequestContext, input: InvitationInp
   }
   const { token, hash } = newToken();
   const expiresAt = new Date(Date.now() + INVITATION_DAYS * 86_400_000);
-  const clinic = await ctx.knex('clinics').where({ id: clinicId }).first('name');
+  const clinic = await ctx.knex('clinics').where({ id: clinicId }).first('name', 'time_zone');
   return ctx.knex.transaction(async (trx) => {
     // A new invitation replaces an unanswered one for the same person and purpose.
     await trx('invitations')
@@ -99,6 +99,7 @@ export async function createInvitation(ctx: RequestContext, input: InvitationInp
       clientName: client?.display_name ?? null,
       url: `${config().publicUrl}/invite/${token}`,
       expiresAt,
+      timeZone: clinic.time_zone,
     });
     await enqueueEmail(trx, { kind: 'invitation', to: email, userId: existing?.id ?? null, ...mail });
     await auditAs(ctx, { action: 'invitation.create', clinicId, clientId: client?.id ?? null, recordType: 'invitation', recordId: row.id, detail: { email, role: input.role } }, trx);

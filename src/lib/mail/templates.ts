@@ -1,11 +1,12 @@
 import type { InvitationRole } from '../db/tables';
 import { renderEmail } from './render';
 
-export const ROLE_WORDS: Record<InvitationRole, string> = {
-  admin: 'clinic administrator',
-  therapist: 'therapist',
-  client: 'rider',
-  carer: 'carer',
+/** A role as it reads after "as": "invited … as a therapist". */
+export const AS_ROLE: Record<InvitationRole, string> = {
+  admin: 'a clinic administrator',
+  therapist: 'a therapist',
+  client: 'the rider',
+  carer: 'a carer',
 };
 
 const FOOTER = 'Kinloop supports home FES cycling programs. It is not a real-time monitor and does not replace your clinic’s advice.';
@@ -18,18 +19,20 @@ export function invitationEmail(p: {
   clientName: string | null;
   url: string;
   expiresAt: Date;
+  /** The clinic's zone: the expiry is said in the invitee's likely local time, with the zone named. */
+  timeZone: string;
 }) {
   const what =
     p.role === 'client'
       ? 'to follow your home cycling program on Kinloop: your sessions, your progress and your prescription'
       : p.role === 'carer'
         ? `to help ${p.clientName} with their home cycling program on Kinloop: upload ride files, record checks before and after rides, and get reminders`
-        : `to join ${p.clinicName} on Kinloop as ${ROLE_WORDS[p.role]}`;
+        : `to join ${p.clinicName} on Kinloop as ${AS_ROLE[p.role]}`;
   const body = renderEmail({
     greeting: p.inviteeName ? `Hello ${p.inviteeName},` : 'Hello,',
     paragraphs: [
       `${p.inviterName} at ${p.clinicName} has invited you ${what}.`,
-      `Open the link below to choose your password. The link works once and until ${p.expiresAt.toUTCString()}.`,
+      `Open the link below to choose your password. The link works once and until ${expiryLabel(p.expiresAt, p.timeZone)}.`,
       'If you did not expect this e-mail, you can ignore it.',
     ],
     action: { label: 'Accept the invitation', url: p.url },
@@ -37,6 +40,9 @@ export function invitationEmail(p: {
   });
   return { subject: `${p.clinicName} invites you to Kinloop`, ...body };
 }
+
+const expiryLabel = (at: Date, timeZone: string) =>
+  new Intl.DateTimeFormat('en-GB', { timeZone, dateStyle: 'full', timeStyle: 'short' }).format(at) + ` (${timeZone} time)`;
 
 export function passwordResetEmail(p: { name: string; url: string; expiresMinutes: number }) {
   const body = renderEmail({
