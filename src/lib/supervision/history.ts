@@ -35,24 +35,40 @@ export async function loadHistories(knex: Knex, clients: ClientRow[]): Promise<C
   const rides = await knex<RideRow>('rides').whereIn('client_id', ids).orderBy('started_at');
   const clinics = await knex('clinics').whereIn('id', [...new Set(clients.map((c) => c.clinic_id))]).select('id', 'flag_thresholds');
   const thresholds = new Map(clinics.map((c) => [c.id as string, flagThresholdsSchema.parse(c.flag_thresholds ?? {})]));
+  // Grouped once, so a clinic-wide read stays linear in its rows.
+  const prescriptionsOf = byClient(prescriptions);
+  const pausesOf = byClient(pauses);
+  const ridesOf = byClient(rides);
   return clients.map((client) => ({
     client,
-    prescriptions: prescriptions
-      .filter((p) => p.client_id === client.id)
-      .map((p) => ({ effectiveFrom: p.effective_from, sessionsPerWeek: p.sessions_per_week, minutesPerSession: p.minutes_per_session, row: p })),
-    pauses: activePauses(pauses.filter((p) => p.client_id === client.id)),
-    sessions: rides
-      .filter((r) => r.client_id === client.id)
-      .map((r) => ({
-        id: r.id,
-        startedAt: r.started_at.toISOString(),
-        durationS: r.duration_s,
-        meanPowerW: r.mean_power_w,
-        currentPerWattMaPerW: r.current_per_watt_ma_per_w,
-        row: r,
-      })),
+    prescriptions: (prescriptionsOf.get(client.id) ?? []).map((p) => ({
+      effectiveFrom: p.effective_from,
+      sessionsPerWeek: p.sessions_per_week,
+      minutesPerSession: p.minutes_per_session,
+      row: p,
+    })),
+    pauses: activePauses(pausesOf.get(client.id) ?? []),
+    sessions: (ridesOf.get(client.id) ?? []).map((r) => ({
+      id: r.id,
+      startedAt: r.started_at.toISOString(),
+      durationS: r.duration_s,
+      meanPowerW: r.mean_power_w,
+      currentPerWattMaPerW: r.current_per_watt_ma_per_w,
+      row: r,
+    })),
     thresholds: thresholds.get(client.clinic_id) ?? flagThresholdsSchema.parse({}),
   }));
+}
+
+/** Rows by their client, each list in the order the query gave. */
+function byClient<T extends { client_id: string }>(rows: T[]): Map<string, T[]> {
+  const out = new Map<string, T[]>();
+  for (const row of rows) {
+    const list = out.get(row.client_id);
+    if (list) list.push(row);
+    else out.set(row.client_id, [row]);
+  }
+  return out;
 }
 
 export function flagInput(h: ClientHistory, now: Date): FlagInput {
