@@ -1,4 +1,4 @@
-import { FUTURE_START_TOLERANCE_MS } from '../../lib/ingest/start-time';
+import { startsAfterUpload } from '../../lib/ingest/start-time';
 import { Button } from '../ui/Button';
 import { duration, minutes, sessionDateTime, withUnit } from './format';
 import type { SessionData, UploadOutcome, UploadStage } from './types';
@@ -72,7 +72,7 @@ function Outcome({ entry, outcome }: { entry: UploadEntry; outcome: UploadOutcom
           </p>
           {session?.startedAtSource === 'file_modified' && <p className="text-sm text-ink-soft">The file has no start time, so the date comes from when the file was last changed.</p>}
           {session?.startedAtSource === 'upload_time' && <p className="text-sm text-ink-soft">The file has no start time, so the date is when it was uploaded.</p>}
-          {session?.startedAtSource === 'file' && Date.parse(session.startedAt) > Date.now() + FUTURE_START_TOLERANCE_MS && (
+          {session?.startedAtSource === 'file' && startsAfterUpload(new Date(session.startedAt), new Date()) && (
             <p className="text-sm font-semibold text-brick">The file’s start time is later than now: check the date and time set on the cycle.</p>
           )}
           {session && <SessionFacts session={session} />}

@@ -5,6 +5,11 @@ import type { StartedAtSource } from '../db/tables';
 /** A cycle whose clock runs a little fast is common; a start later than this past the upload is not a clock drift. */
 export const FUTURE_START_TOLERANCE_MS = 60 * 60_000;
 
+/** Does a ride start later than its upload allows (the cycle's clock is off)? The upload page passes "now". */
+export function startsAfterUpload(startedAt: Date, uploadedAt: Date): boolean {
+  return startedAt.getTime() > uploadedAt.getTime() + FUTURE_START_TOLERANCE_MS;
+}
+
 export interface StartTimeInput {
   /** The start the parser read from the file, ISO 8601, or null. */
   fileStartedAt: string | null;
@@ -18,10 +23,9 @@ export interface StartTimeInput {
 export function sessionStart(input: StartTimeInput): { startedAt: Date; source: StartedAtSource; warnings: string[] } {
   if (input.fileStartedAt) {
     const startedAt = new Date(input.fileStartedAt);
-    const warnings =
-      startedAt.getTime() > input.uploadedAt.getTime() + FUTURE_START_TOLERANCE_MS
-        ? [`The file says the ride started on ${localLabel(startedAt, input.timeZone)}, after the file was uploaded: check the date and time set on the cycle.`]
-        : [];
+    const warnings = startsAfterUpload(startedAt, input.uploadedAt)
+      ? [`The file says the ride started on ${localLabel(startedAt, input.timeZone)}, after the file was uploaded: check the date and time set on the cycle.`]
+      : [];
     return { startedAt, source: 'file', warnings };
   }
   if (input.fallbackStartedAt) {
