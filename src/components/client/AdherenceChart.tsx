@@ -1,7 +1,8 @@
 import type { ChartData, ChartOptions, Plugin } from 'chart.js';
 import { useMemo } from 'react';
 import { Bar } from 'react-chartjs-2';
-import { baseOptions, COLOURS } from './chart-setup';
+import { PALETTE } from '../palette';
+import { baseOptions } from './chart-setup';
 import { ChartFrame, type ChartTable } from './ChartFrame';
 import { dayLabel, dayMonth, mondayOfIsoWeek } from './dates';
 import type { AdherenceData, AdherenceWeek } from './types';
@@ -22,7 +23,7 @@ const pausedLabels: Plugin<'bar'> = {
     const meta = chart.getDatasetMeta(PAUSED_DATASET);
     const { ctx } = chart;
     ctx.save();
-    ctx.fillStyle = COLOURS.slate;
+    ctx.fillStyle = PALETTE.slate;
     ctx.font = '600 12px "IBM Plex Sans", sans-serif';
     ctx.textAlign = 'center';
     ctx.textBaseline = 'middle';
@@ -47,9 +48,9 @@ export function AdherenceChart({ adherence, locale, currentIsoWeek }: { adherenc
     () => ({
       labels: weeks.map((w) => dayMonth(mondayOfIsoWeek(w.isoWeek), locale)),
       datasets: [
-        { label: 'Counted sessions', data: weeks.map((w) => w.counted), backgroundColor: COLOURS.lagoon, grouped: false, barPercentage: 0.5, order: 0 },
-        { label: 'Prescribed', data: weeks.map((w) => (w.paused ? null : w.prescribed)), backgroundColor: COLOURS.lagoonTint, borderColor: COLOURS.lagoon, borderWidth: 2, grouped: false, barPercentage: 0.85, order: 1 },
-        { label: 'Paused week', data: weeks.map((w) => (w.paused ? top : null)), backgroundColor: COLOURS.slateTint, borderColor: COLOURS.slate, borderWidth: 1, grouped: false, barPercentage: 0.85, order: 2 },
+        { label: 'Counted sessions', data: weeks.map((w) => w.counted), backgroundColor: PALETTE.lagoon, grouped: false, barPercentage: 0.5, order: 0 },
+        { label: 'Prescribed', data: weeks.map((w) => (w.paused ? null : w.prescribed)), backgroundColor: PALETTE.lagoonTint, borderColor: PALETTE.lagoon, borderWidth: 2, grouped: false, barPercentage: 0.85, order: 1 },
+        { label: 'Paused week', data: weeks.map((w) => (w.paused ? top : null)), backgroundColor: PALETTE.slateTint, borderColor: PALETTE.slate, borderWidth: 1, grouped: false, barPercentage: 0.85, order: 2 },
       ],
     }),
     [weeks, locale, top],
@@ -58,7 +59,7 @@ export function AdherenceChart({ adherence, locale, currentIsoWeek }: { adherenc
     const base = baseOptions<'bar'>('Sessions');
     return {
       ...base,
-      scales: { x: { ...base.scales!.x, title: { display: true, text: 'Week starting', color: COLOURS.ink } }, y: { ...base.scales!.y, ticks: { color: COLOURS.ink, precision: 0 } } },
+      scales: { x: { ...base.scales!.x, title: { display: true, text: 'Week starting', color: PALETTE.ink } }, y: { ...base.scales!.y, ticks: { color: PALETTE.ink, precision: 0 } } },
       plugins: {
         ...base.plugins,
         tooltip: {

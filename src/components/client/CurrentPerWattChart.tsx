@@ -2,7 +2,8 @@ import type { ChartData, ChartOptions } from 'chart.js';
 import { useMemo } from 'react';
 import { Line } from 'react-chartjs-2';
 import { number } from '../rides/format';
-import { baseOptions, COLOURS } from './chart-setup';
+import { PALETTE } from '../palette';
+import { baseOptions } from './chart-setup';
 import { ChartFrame, type ChartTable } from './ChartFrame';
 import { instantLabel, shortDay } from './dates';
 import type { TrendsData } from './types';
@@ -30,8 +31,8 @@ export function CurrentPerWattChart({ trends, locale, timeZone }: { trends: Tren
         {
           label: 'Current per watt',
           data: sessions.map((s) => s.currentPerWattMaPerW),
-          borderColor: COLOURS.slate,
-          backgroundColor: COLOURS.slate,
+          borderColor: PALETTE.slate,
+          backgroundColor: PALETTE.slate,
           pointRadius: 3,
           borderWidth: 2,
           spanGaps: true,

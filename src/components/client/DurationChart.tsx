@@ -2,7 +2,8 @@ import type { ChartData, ChartOptions } from 'chart.js';
 import { useMemo } from 'react';
 import { Chart } from 'react-chartjs-2';
 import { number } from '../rides/format';
-import { baseOptions, COLOURS } from './chart-setup';
+import { PALETTE } from '../palette';
+import { baseOptions } from './chart-setup';
 import { ChartFrame, type ChartTable } from './ChartFrame';
 import { instantLabel, shortDay } from './dates';
 import type { TrendsData } from './types';
@@ -29,21 +30,21 @@ export function DurationChart({ trends, locale, timeZone }: { trends: TrendsData
     () => ({
       labels: sessions.map((s) => shortDay(s.startedAt, locale, timeZone)),
       datasets: [
-        { type: 'line', label: 'Prescribed minutes', data: sessions.map((s) => toMinutes(s.targetS)), borderColor: COLOURS.ink, backgroundColor: COLOURS.ink, borderWidth: 2, pointRadius: 0, stepped: 'middle', order: 0 },
+        { type: 'line', label: 'Prescribed minutes', data: sessions.map((s) => toMinutes(s.targetS)), borderColor: PALETTE.ink, backgroundColor: PALETTE.ink, borderWidth: 2, pointRadius: 0, stepped: 'middle', order: 0 },
         {
           type: 'line',
           label: `Counts from (${thresholds.countThresholdPct} %)`,
           data: sessions.map((s) => (s.targetS === null ? null : toMinutes((s.targetS * thresholds.countThresholdPct) / 100))),
-          borderColor: COLOURS.ochre,
-          backgroundColor: COLOURS.ochre,
+          borderColor: PALETTE.ochre,
+          backgroundColor: PALETTE.ochre,
           borderDash: [3, 3],
           borderWidth: 2,
           pointRadius: 0,
           stepped: 'middle',
           order: 1,
         },
-        { type: 'bar', label: 'Counted session', data: sessions.map((s) => (s.counted ? toMinutes(s.durationS) : null)), backgroundColor: COLOURS.lagoon, grouped: false, order: 2 },
-        { type: 'bar', label: 'Too short to count', data: sessions.map((s) => (s.counted ? null : toMinutes(s.durationS))), backgroundColor: COLOURS.lineStrong, grouped: false, order: 3 },
+        { type: 'bar', label: 'Counted session', data: sessions.map((s) => (s.counted ? toMinutes(s.durationS) : null)), backgroundColor: PALETTE.lagoon, grouped: false, order: 2 },
+        { type: 'bar', label: 'Too short to count', data: sessions.map((s) => (s.counted ? null : toMinutes(s.durationS))), backgroundColor: PALETTE.lineStrong, grouped: false, order: 3 },
       ],
     }),
     [sessions, locale, timeZone, thresholds.countThresholdPct],

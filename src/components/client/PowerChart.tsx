@@ -2,7 +2,8 @@ import type { ChartData, ChartOptions } from 'chart.js';
 import { useMemo } from 'react';
 import { Line } from 'react-chartjs-2';
 import { number } from '../rides/format';
-import { baseOptions, COLOURS } from './chart-setup';
+import { PALETTE } from '../palette';
+import { baseOptions } from './chart-setup';
 import { ChartFrame, type ChartTable } from './ChartFrame';
 import { instantLabel, shortDay } from './dates';
 import type { TrendsData } from './types';
@@ -40,9 +41,9 @@ export function PowerChart({ trends, locale, timeZone }: { trends: TrendsData; l
         {
           label: 'Mean power',
           data: sessions.map((s) => s.meanPowerW),
-          borderColor: COLOURS.lagoon,
-          backgroundColor: COLOURS.lagoon,
-          pointBackgroundColor: sessions.map((s) => (s.counted ? COLOURS.lagoon : COLOURS.surface)),
+          borderColor: PALETTE.lagoon,
+          backgroundColor: PALETTE.lagoon,
+          pointBackgroundColor: sessions.map((s) => (s.counted ? PALETTE.lagoon : PALETTE.surface)),
           pointRadius: 3,
           borderWidth: 2,
           order: 0,
@@ -50,8 +51,8 @@ export function PowerChart({ trends, locale, timeZone }: { trends: TrendsData; l
         {
           label: 'Usual level',
           data: sessions.map((s) => s.baselineW),
-          borderColor: COLOURS.slate,
-          backgroundColor: COLOURS.slate,
+          borderColor: PALETTE.slate,
+          backgroundColor: PALETTE.slate,
           borderDash: [6, 4],
           borderWidth: 2,
           pointRadius: 0,
@@ -60,7 +61,7 @@ export function PowerChart({ trends, locale, timeZone }: { trends: TrendsData; l
         {
           label: `Review line (${trends.thresholds.powerDropReviewPct} % under)`,
           data: sessions.map((s) => s.reviewBelowW),
-          borderColor: COLOURS.ochre,
+          borderColor: PALETTE.ochre,
           backgroundColor: 'rgba(58, 83, 120, 0.14)',
           borderDash: [2, 3],
           borderWidth: 2,

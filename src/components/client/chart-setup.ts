@@ -1,11 +1,9 @@
-// What the client page's charts need from chart.js, registered once, and the
-// palette of global.css so the charts match the page.
+// What the client page's charts need from chart.js, registered once, drawn in
+// the palette of global.css so the charts match the page.
 import { PALETTE } from '../palette';
 import { BarElement, CategoryScale, Chart, Filler, Legend, LinearScale, LineElement, PointElement, Tooltip, type ChartOptions, type ChartType, type LegendItem } from 'chart.js';
 
 Chart.register(CategoryScale, LinearScale, BarElement, LineElement, PointElement, Filler, Tooltip, Legend);
-
-export const COLOURS = PALETTE;
 
 /** The key shows lines as short lines and bars and filled bands as blocks, whatever the points look like. */
 function keyItems(chart: Chart): LegendItem[] {
@@ -24,11 +22,11 @@ export function baseOptions<T extends ChartType>(yTitle: string): ChartOptions<T
     animation: false,
     interaction: { mode: 'index', intersect: false },
     plugins: {
-      legend: { position: 'bottom', labels: { color: COLOURS.ink, usePointStyle: true, pointStyleWidth: 28, boxHeight: 10, generateLabels: keyItems } },
+      legend: { position: 'bottom', labels: { color: PALETTE.ink, usePointStyle: true, pointStyleWidth: 28, boxHeight: 10, generateLabels: keyItems } },
     },
     scales: {
-      x: { ticks: { color: COLOURS.ink, maxRotation: 0, autoSkipPadding: 12 }, grid: { display: false } },
-      y: { beginAtZero: true, title: { display: true, text: yTitle, color: COLOURS.ink }, ticks: { color: COLOURS.ink }, grid: { color: COLOURS.line } },
+      x: { ticks: { color: PALETTE.ink, maxRotation: 0, autoSkipPadding: 12 }, grid: { display: false } },
+      y: { beginAtZero: true, title: { display: true, text: yTitle, color: PALETTE.ink }, ticks: { color: PALETTE.ink }, grid: { color: PALETTE.line } },
     },
   } as ChartOptions<T>;
 }

@@ -2,7 +2,7 @@ import type { ReactNode } from 'react';
 import { useApi } from '../api';
 import { duration, number } from '../rides/format';
 import { Loaded } from '../ui/Loading';
-import { LAGOON, OCHRE, SLATE } from './chart-setup';
+import { PALETTE } from '../palette';
 import { fullDate, instantDay } from './dates';
 import { km } from './goal-words';
 import { GoalSummary } from './GoalSummary';
@@ -68,9 +68,9 @@ function ProgressView({ data, timeZone, locale }: { data: ProgressData; timeZone
           Week by week
         </h2>
         <div className="grid gap-4">
-          <WeekChart id="power" title="Mean power" axis="Mean power (W)" kind="line" colour={LAGOON} measure={MEASURES.power} weeks={weeks} locale={locale} />
-          <WeekChart id="minutes" title="Active minutes" axis="Active minutes" kind="bar" colour={SLATE} measure={MEASURES.minutes} weeks={weeks} locale={locale} />
-          <WeekChart id="distance" title="Distance" axis="Distance (km)" kind="bar" colour={OCHRE} measure={MEASURES.distance} weeks={weeks} locale={locale} />
+          <WeekChart id="power" title="Mean power" axis="Mean power (W)" kind="line" colour={PALETTE.lagoon} measure={MEASURES.power} weeks={weeks} locale={locale} />
+          <WeekChart id="minutes" title="Active minutes" axis="Active minutes" kind="bar" colour={PALETTE.slate} measure={MEASURES.minutes} weeks={weeks} locale={locale} />
+          <WeekChart id="distance" title="Distance" axis="Distance (km)" kind="bar" colour={PALETTE.ochre} measure={MEASURES.distance} weeks={weeks} locale={locale} />
         </div>
       </section>
     </div>

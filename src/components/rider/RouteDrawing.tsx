@@ -3,9 +3,7 @@ import { drawRoute } from './route-drawing';
 import type { Goal } from './types';
 import { PALETTE } from '../palette';
 
-const LAGOON = PALETTE.lagoon;
 const AHEAD = PALETTE.lineStrong;
-const OCHRE = PALETTE.ochre;
 
 /** The goal's route as a line drawing with the milestones and the rider's position, described in words too. */
 export function RouteDrawing({ goal, description }: { goal: Goal; description: string }) {
@@ -26,12 +24,12 @@ export function RouteDrawing({ goal, description }: { goal: Goal; description: s
         <title id={`${id}-t`}>{`Drawing of the route ${goal.route.name}`}</title>
         <desc id={`${id}-d`}>{description}</desc>
         <polyline points={d.ahead} fill="none" stroke={AHEAD} strokeWidth="4" strokeDasharray="10 8" strokeLinecap="round" strokeLinejoin="round" />
-        <polyline points={d.done} fill="none" stroke={LAGOON} strokeWidth="7" strokeLinecap="round" strokeLinejoin="round" />
+        <polyline points={d.done} fill="none" stroke={PALETTE.lagoon} strokeWidth="7" strokeLinecap="round" strokeLinejoin="round" />
         {d.points.map((p, i) =>
           p.milestone ? (
-            <circle key={i} cx={p.x} cy={p.y} r="8" fill={p.passed ? LAGOON : '#fff'} stroke={LAGOON} strokeWidth="3" />
+            <circle key={i} cx={p.x} cy={p.y} r="8" fill={p.passed ? PALETTE.lagoon : PALETTE.surface} stroke={PALETTE.lagoon} strokeWidth="3" />
           ) : (
-            <circle key={i} cx={p.x} cy={p.y} r="3" fill={p.passed ? LAGOON : AHEAD} />
+            <circle key={i} cx={p.x} cy={p.y} r="3" fill={p.passed ? PALETTE.lagoon : AHEAD} />
           ),
         )}
         <rect x={first.x - 8} y={first.y - 8} width="16" height="16" fill="#1d2a2f" />
@@ -43,14 +41,14 @@ export function RouteDrawing({ goal, description }: { goal: Goal; description: s
             Finish
           </text>
         )}
-        <circle cx={d.position.x} cy={d.position.y} r="14" fill={OCHRE} stroke="#fff" strokeWidth="4" />
-        <circle cx={d.position.x} cy={d.position.y} r="4" fill="#fff" />
+        <circle cx={d.position.x} cy={d.position.y} r="14" fill={PALETTE.ochre} stroke={PALETTE.surface} strokeWidth="4" />
+        <circle cx={d.position.x} cy={d.position.y} r="4" fill={PALETTE.surface} />
       </svg>
       <figcaption>
         <ul className="flex flex-wrap gap-x-5 gap-y-1 text-sm">
           <li className="flex items-center gap-2">
             <svg aria-hidden="true" width="32" height="12">
-              <line x1="2" y1="6" x2="30" y2="6" stroke={LAGOON} strokeWidth="6" strokeLinecap="round" />
+              <line x1="2" y1="6" x2="30" y2="6" stroke={PALETTE.lagoon} strokeWidth="6" strokeLinecap="round" />
             </svg>
             Travelled
           </li>
@@ -62,19 +60,19 @@ export function RouteDrawing({ goal, description }: { goal: Goal; description: s
           </li>
           <li className="flex items-center gap-2">
             <svg aria-hidden="true" width="18" height="18">
-              <circle cx="9" cy="9" r="6" fill={LAGOON} stroke={LAGOON} strokeWidth="2.5" />
+              <circle cx="9" cy="9" r="6" fill={PALETTE.lagoon} stroke={PALETTE.lagoon} strokeWidth="2.5" />
             </svg>
             Milestone passed
           </li>
           <li className="flex items-center gap-2">
             <svg aria-hidden="true" width="18" height="18">
-              <circle cx="9" cy="9" r="6" fill="#fff" stroke={LAGOON} strokeWidth="2.5" />
+              <circle cx="9" cy="9" r="6" fill={PALETTE.surface} stroke={PALETTE.lagoon} strokeWidth="2.5" />
             </svg>
             Milestone ahead
           </li>
           <li className="flex items-center gap-2">
             <svg aria-hidden="true" width="22" height="22">
-              <circle cx="11" cy="11" r="8" fill={OCHRE} stroke="#fff" strokeWidth="2" />
+              <circle cx="11" cy="11" r="8" fill={PALETTE.ochre} stroke={PALETTE.surface} strokeWidth="2" />
             </svg>
             Where you are
           </li>

@@ -1,7 +1,8 @@
 import type { ChartData, ChartOptions } from 'chart.js';
 import { useMemo } from 'react';
 import { Bar, Line } from 'react-chartjs-2';
-import { INK, LINE } from './chart-setup';
+import { PALETTE } from '../palette';
+import './chart-setup';
 import { fullDate, shortDate } from './dates';
 import { weeklySentence, type WeekMeasure } from './progress-words';
 import type { ProgressWeek } from './types';
@@ -49,8 +50,8 @@ export function WeekChart({
           },
         },
         scales: {
-          x: { ticks: { color: INK, maxRotation: 0, autoSkipPadding: 14 }, grid: { display: false } },
-          y: { beginAtZero: true, title: { display: true, text: axis, color: INK }, ticks: { color: INK }, grid: { color: LINE } },
+          x: { ticks: { color: PALETTE.ink, maxRotation: 0, autoSkipPadding: 14 }, grid: { display: false } },
+          y: { beginAtZero: true, title: { display: true, text: axis, color: PALETTE.ink }, ticks: { color: PALETTE.ink }, grid: { color: PALETTE.line } },
         },
       }) as ChartOptions<'bar'> & ChartOptions<'line'>,
     [weeks, measure, locale, axis],

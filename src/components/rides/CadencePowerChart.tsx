@@ -1,7 +1,7 @@
 import type { ChartData, ChartOptions } from 'chart.js';
 import { useMemo } from 'react';
 import { Line } from 'react-chartjs-2';
-import { baseOptions, INK, LINE, phaseBands } from './chart-setup';
+import { baseOptions, phaseBands } from './chart-setup';
 import { number } from './format';
 import { minuteRows } from './minute-rows';
 import { MinuteTable } from './MinuteTable';
@@ -40,17 +40,17 @@ export function CadencePowerChart({ series, endS }: { series: ChartSeries; endS:
           position: 'left',
           display: cadence.length > 0,
           beginAtZero: true,
-          title: { display: true, text: 'Cadence (rpm)', color: INK },
-          ticks: { color: INK },
-          grid: { color: LINE },
+          title: { display: true, text: 'Cadence (rpm)', color: PALETTE.ink },
+          ticks: { color: PALETTE.ink },
+          grid: { color: PALETTE.line },
         },
         power: {
           type: 'linear',
           position: 'right',
           display: power.length > 0,
           beginAtZero: true,
-          title: { display: true, text: 'Power (W)', color: INK },
-          ticks: { color: INK },
+          title: { display: true, text: 'Power (W)', color: PALETTE.ink },
+          ticks: { color: PALETTE.ink },
           grid: { drawOnChartArea: false },
         },
       },

@@ -1,7 +1,8 @@
 import type { ChartData, ChartOptions } from 'chart.js';
 import { useMemo } from 'react';
 import { Line } from 'react-chartjs-2';
-import { baseOptions, INK, LINE, phaseBands } from './chart-setup';
+import { PALETTE } from '../palette';
+import { baseOptions, phaseBands } from './chart-setup';
 import { orderedChannels } from './channel-order';
 import { channelLabel, number } from './format';
 import { minuteRows } from './minute-rows';
@@ -44,9 +45,9 @@ export function ChannelChart({ series, endS }: { series: ChartSeries; endS: numb
         y: {
           type: 'linear',
           beginAtZero: true,
-          title: { display: true, text: 'Current (mA)', color: INK },
-          ticks: { color: INK },
-          grid: { color: LINE },
+          title: { display: true, text: 'Current (mA)', color: PALETTE.ink },
+          ticks: { color: PALETTE.ink },
+          grid: { color: PALETTE.line },
         },
       },
     };

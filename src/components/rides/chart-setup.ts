@@ -15,9 +15,6 @@ export const PHASE_FILL: Record<string, string> = {
   cooldown: PALETTE.ochreTint,
 };
 
-export const INK = PALETTE.ink;
-export const LINE = PALETTE.line;
-
 /** Fills each phase's time range across the plot area, beneath the grid and the lines. */
 export function phaseBands(phases: ChartSeries['phases']): Plugin<'line'> {
   const ranges = phaseRanges(phases);
@@ -51,7 +48,7 @@ export function baseOptions(endMinutes: number): ChartOptions<'line'> {
     interaction: { mode: 'nearest', axis: 'x', intersect: false },
     elements: { point: { radius: 0, hitRadius: 6, hoverRadius: 4 }, line: { borderWidth: 2, tension: 0 } },
     plugins: {
-      legend: { position: 'bottom', labels: { color: INK, boxWidth: 28, usePointStyle: false } },
+      legend: { position: 'bottom', labels: { color: PALETTE.ink, boxWidth: 28, usePointStyle: false } },
       tooltip: {
         callbacks: {
           title: (items) => (items.length ? `${clock((items[0].parsed.x ?? 0) * 60)} from the start` : ''),
@@ -63,9 +60,9 @@ export function baseOptions(endMinutes: number): ChartOptions<'line'> {
         type: 'linear',
         min: 0,
         max: endMinutes,
-        title: { display: true, text: 'Minutes from the start', color: INK },
-        ticks: { color: INK, precision: 0 },
-        grid: { color: LINE },
+        title: { display: true, text: 'Minutes from the start', color: PALETTE.ink },
+        ticks: { color: PALETTE.ink, precision: 0 },
+        grid: { color: PALETTE.line },
       },
     },
   };
