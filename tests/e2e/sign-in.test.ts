@@ -51,9 +51,13 @@ describe('signing in as each demo role', () => {
     await expect(page.evaluate(() => document.activeElement?.getAttribute('name'))).resolves.toBe('password');
     await page.keyboard.type(process.env.KINLOOP_DEMO_PASSWORD ?? 'kinloop-demo-2026');
     await Promise.all([page.waitForURL(`${baseUrl()}/carer`), page.keyboard.press('Enter')]);
-    // Signing out is a keyboard-reachable button too.
+    // Signing out is a keyboard-reachable button too. Once the home has loaded
+    // its data: an island still fetching would be answered 401 after the
+    // sign-out and send the page to sign-in itself, aborting the form's own
+    // navigation under the test.
+    await waitForIslands(page);
+    await page.waitForLoadState('networkidle');
     await page.getByRole('button', { name: 'Sign out' }).focus();
-    // Islands still loading may be answered 401 and add ?next=…; either way the user is signed out.
     await Promise.all([page.waitForURL(/\/sign-in(\?|$)/), page.keyboard.press('Enter')]);
     await context.close();
   });
