@@ -1,7 +1,7 @@
 // Starts s3rver, the local stand-in for S3-compatible storage, with its objects
 // in a folder of ours and the bucket Kinloop uses created if missing.
 //   node s3-fake/launch.mjs --port 4568 --directory .data/s3 --bucket kinloop-rides
-import { mkdirSync } from 'node:fs';
+import { chmodSync, mkdirSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import S3rver from 's3rver';
 
@@ -17,7 +17,10 @@ if (!values.directory) {
   console.error('usage: launch.mjs --directory DIR [--port N] [--bucket NAME]');
   process.exit(64);
 }
-mkdirSync(values.directory, { recursive: true });
+// Ride files are health records: s3rver's folders and files are this user's alone (0700/0600).
+process.umask(0o077);
+mkdirSync(values.directory, { recursive: true, mode: 0o700 });
+chmodSync(values.directory, 0o700);
 
 const server = new S3rver({
   port: Number(values.port),

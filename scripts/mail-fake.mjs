@@ -2,7 +2,7 @@
 // folder, so that development and tests can read what Kinloop sent.
 //   node scripts/mail-fake.mjs --port 2525 --dir .data/mailbox
 import { randomUUID } from 'node:crypto';
-import { mkdirSync, renameSync, writeFileSync } from 'node:fs';
+import { chmodSync, mkdirSync, renameSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
 import { simpleParser } from 'mailparser';
@@ -19,7 +19,10 @@ if (!values.dir) {
   console.error('usage: mail-fake.mjs --dir DIR [--port N]');
   process.exit(64);
 }
-mkdirSync(values.dir, { recursive: true });
+// Captured mail holds sign-in links: only this user may read it (folders 0700, files 0600).
+process.umask(0o077);
+mkdirSync(values.dir, { recursive: true, mode: 0o700 });
+chmodSync(values.dir, 0o700);
 
 const addresses = (field) => (field ? [field].flat().flatMap((a) => a.value.map((v) => v.address)) : []);
 
@@ -46,7 +49,7 @@ const server = new SMTPServer({
         };
         // Write then rename, so that a reader never sees half a message.
         const tmp = path.join(values.dir, `.${id}.tmp`);
-        writeFileSync(tmp, JSON.stringify(record, null, 2));
+        writeFileSync(tmp, JSON.stringify(record, null, 2), { mode: 0o600 });
         renameSync(tmp, path.join(values.dir, `${id}.json`));
         callback();
       })
