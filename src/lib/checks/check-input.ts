@@ -72,7 +72,7 @@ const skinEntry = z
 
 const bodyShape = z
   .object({
-    takenAt: instant('takenAt').optional(),
+    takenAt: instant('takenAt', 'takenAt must be an ISO 8601 date-time with a time zone, e.g. 2026-10-05T09:30:00Z.').optional(),
     kind: z.literal('pre_post').default('pre_post'),
     bpBefore: bloodPressure('before the ride').optional(),
     bpDuring: bloodPressure('during the ride').optional(),

@@ -35,11 +35,14 @@ export function calendarDate(label: string) {
     }, `${label}: choose a date between ${FIRST_YEAR} and ${LAST_YEAR}.`);
 }
 
-/** An ISO 8601 date-time with a time zone that names a real instant within the same years. */
-export function instant(label: string, example = '2026-10-05T09:30:00Z') {
+/**
+ * An ISO 8601 date-time with a time zone that names a real instant within the
+ * same years. `formatMessage` replaces the words for a value of the wrong form.
+ */
+export function instant(label: string, formatMessage = `${label}: use an ISO 8601 date-time with a time zone, e.g. 2026-10-05T09:30:00Z.`) {
   return z
-    .string({ invalid_type_error: `${label}: use an ISO 8601 date-time with a time zone, e.g. ${example}.` })
-    .datetime({ offset: true, message: `${label}: use an ISO 8601 date-time with a time zone, e.g. ${example}.` })
+    .string({ invalid_type_error: formatMessage })
+    .datetime({ offset: true, message: formatMessage })
     .refine((v) => {
       const at = new Date(v);
       return !Number.isNaN(at.getTime()) && at.getUTCFullYear() >= FIRST_YEAR && at.getUTCFullYear() <= LAST_YEAR;
