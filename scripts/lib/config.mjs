@@ -1,7 +1,7 @@
 // Resolves the run configuration from environment variables and their defaults.
 // Plain Node (no dependencies): `npm start` calls this before `node_modules` exists.
 import { randomBytes } from 'node:crypto';
-import { chmodSync, existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { chmodSync, existsSync, mkdirSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 
 function num(value, fallback) {
@@ -35,6 +35,13 @@ function privateDataDir(dataDir) {
   process.umask(0o077);
   mkdirSync(dataDir, { recursive: true, mode: 0o700 });
   chmodSync(dataDir, 0o700);
+  // Files an earlier version left readable (logs) lose their group and other bits.
+  for (const entry of readdirSync(dataDir, { withFileTypes: true })) {
+    if (!entry.isFile()) continue;
+    const file = path.join(dataDir, entry.name);
+    const mode = statSync(file).mode & 0o777;
+    if (mode & 0o077) chmodSync(file, mode & 0o700);
+  }
 }
 
 /**
