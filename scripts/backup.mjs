@@ -10,7 +10,7 @@ import { existsSync, mkdirSync, readdirSync, rmSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { startServices } from './lib/bench-stack.mjs';
-import { appEnv, resolveConfig } from './lib/config.mjs';
+import { appEnv, dataDirOf, resolveConfig } from './lib/config.mjs';
 import { ensureDependencies, ensurePostgresInstalled, log, pgPaths, Supervisor } from './lib/services.mjs';
 
 const root = path.dirname(path.dirname(fileURLToPath(import.meta.url)));
@@ -25,7 +25,13 @@ if (existsSync(folder) && readdirSync(folder).length) {
   process.exit(1);
 }
 ensureDependencies(root);
+const existed = existsSync(dataDirOf(process.env, root));
 const config = resolveConfig(process.env, { root });
+if (!config.external.db && !existsSync(path.join(pgPaths(config).data, 'PG_VERSION'))) {
+  if (!existed) rmSync(config.dataDir, { recursive: true, force: true });
+  log(`${config.dataDir} holds no Kinloop database; check KINLOOP_DATA_DIR`);
+  process.exit(1);
+}
 const bin = ensurePostgresInstalled();
 const supervisor = new Supervisor();
 let code = 1;
