@@ -18,6 +18,6 @@ export async function grantAppRole(owner: Knex, appRole: string): Promise<void> 
   await owner.raw(`GRANT SELECT, INSERT, UPDATE, DELETE ON ALL TABLES IN SCHEMA public TO ${role}`);
   await owner.raw(`GRANT USAGE, SELECT ON ALL SEQUENCES IN SCHEMA public TO ${role}`);
   await owner.raw(`REVOKE UPDATE, DELETE, TRUNCATE, REFERENCES, TRIGGER ON audit_log FROM ${role}, PUBLIC`);
-  // The migration bookkeeping is the owner's alone.
-  await owner.raw(`REVOKE ALL ON knex_migrations, knex_migrations_lock FROM ${role}, PUBLIC`);
+  // The migration bookkeeping is the owner's to write; the app (and a pg_dump as the app's role) may read it.
+  await owner.raw(`REVOKE INSERT, UPDATE, DELETE, TRUNCATE, REFERENCES, TRIGGER ON knex_migrations, knex_migrations_lock FROM ${role}, PUBLIC`);
 }
