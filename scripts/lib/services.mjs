@@ -110,6 +110,30 @@ export function stopStaleCluster(bin, config) {
 }
 
 /**
+ * PostgreSQL runs as its own user and must pass through the private data
+ * folder, and every folder above it, to reach its cluster. Folders of the
+ * project (the data folder, a test's folder around it) get search permission
+ * for postgres's group only, never read and nothing for others; a folder
+ * outside the project that it cannot pass is reported, not changed.
+ */
+function letPostgresReach(config) {
+  const { gid } = postgresIds();
+  const canPass = (dir) => run('runuser', ['-u', 'postgres', '--', 'test', '-x', dir], { quiet: true, allowFailure: true }).status === 0;
+  const chain = [];
+  for (let dir = config.dataDir; dir !== path.dirname(dir); dir = path.dirname(dir)) chain.unshift(dir);
+  for (const dir of chain) {
+    if (canPass(dir)) continue;
+    const inProject = dir === config.dataDir || !path.relative(config.root, dir).startsWith('..');
+    if (!inProject) {
+      throw new Error(`PostgreSQL runs as the postgres user and cannot pass through ${dir} to reach ${config.dataDir}; allow it (for example chmod o+x ${dir}) or choose another KINLOOP_DATA_DIR`);
+    }
+    const { uid, mode } = statSync(dir);
+    chownSync(dir, uid, gid);
+    chmodSync(dir, (mode & 0o700) | 0o010);
+  }
+}
+
+/**
  * Creates (first run) and starts the project's own cluster on 127.0.0.1, then
  * makes sure its two roles and the database exist: `kinloop_owner` owns the
  * database and runs the migrations, `kinloop` is the app's role (granted its
@@ -117,13 +141,7 @@ export function stopStaleCluster(bin, config) {
  */
 export function startPostgres(bin, config) {
   const { data, socket, log: logFile } = pgPaths(config);
-  if (isRoot) {
-    // PostgreSQL runs as its own user and must pass through the private data
-    // folder to reach its cluster: search for postgres's group, nothing for others.
-    const { gid } = postgresIds();
-    chownSync(config.dataDir, 0, gid);
-    chmodSync(config.dataDir, 0o710);
-  }
+  if (isRoot) letPostgresReach(config);
   ownDir(socket);
   if (!existsSync(path.join(data, 'PG_VERSION'))) {
     log(`creating the database cluster in ${data}…`);
