@@ -1,13 +1,30 @@
-// Serves the built app (Astro's standalone Node server) and then makes one
-// request so that the in-server worker starts right away, not on the first
-// visitor's request.
+// Serves the built app (Astro's standalone Node server) and says so once it
+// answers. Background work runs in the worker process (`npm run worker`),
+// never here.
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
+import { appConfig } from './lib/config.mjs';
 
-const buildDir = path.resolve(process.env.KINLOOP_BUILD_DIR ?? 'dist');
+const { buildDir, port } = appConfig(process.env);
+
+// A failure inside one request must never end the server. Every stream of a
+// request handles its own errors; this is the net under them: a socket error
+// that escaped (a client gone mid-request) is logged and the server goes on.
+// Anything else is a bug whose state is unknown: the process exits and the
+// supervisor (`npm start`) starts a fresh one.
+const SOCKET_ERRORS = new Set(['ECONNRESET', 'EPIPE', 'ECONNABORTED', 'ERR_STREAM_PREMATURE_CLOSE', 'ERR_STREAM_DESTROYED']);
+process.on('uncaughtException', (err) => {
+  if (SOCKET_ERRORS.has(err?.code) || err?.message === 'aborted') {
+    console.error(`kinloop app: a request's connection failed (${err.code ?? err.message}); the server goes on`);
+    return;
+  }
+  console.error('kinloop app: uncaught exception, exiting:', err);
+  process.exit(1);
+});
+
 await import(pathToFileURL(path.join(buildDir, 'server', 'entry.mjs')).href);
 
-const url = `http://127.0.0.1:${process.env.PORT ?? 4321}/api/health`;
+const url = `http://127.0.0.1:${port}/api/health`;
 for (let i = 0; i < 100; i++) {
   try {
     await fetch(url);

@@ -84,3 +84,8 @@ export function appEnv(config, extra = {}) {
   if (config.mailboxDir) env.KINLOOP_MAILBOX_DIR = config.mailboxDir;
   return env;
 }
+
+/** What scripts/serve.mjs needs: the build to serve and the port it answers on. */
+export function appConfig(env) {
+  return { buildDir: path.resolve(env.KINLOOP_BUILD_DIR ?? 'dist'), port: num(env.PORT, 4321) };
+}
