@@ -45,11 +45,11 @@ try {
   await startSmtp(supervisor, config);
   dbTasks(config, env, ['migrate']);
   await build;
-  const [, worker] = await Promise.all([startApp(supervisor, config, env), startWorker(supervisor, config, env)]);
+  const [app, worker] = await Promise.all([startApp(supervisor, config, env), startWorker(supervisor, config, env)]);
   log('running the hostile cases…');
   const cases = spawn(process.execPath, ['--import', 'tsx', path.join(root, 'scripts', 'bench-hostile.ts'), ...process.argv.slice(2)], {
     cwd: root,
-    env: { ...env, KINLOOP_BASE_URL: `http://127.0.0.1:${config.port}`, BENCH_WORKER_PID: String(worker.pid) },
+    env: { ...env, KINLOOP_BASE_URL: `http://127.0.0.1:${config.port}`, BENCH_WORKER_PID: String(worker.pid), BENCH_APP_PID: String(app.pid) },
     stdio: 'inherit',
   });
   const code = await new Promise((resolve) => cases.on('exit', (c) => resolve(c ?? 1)));

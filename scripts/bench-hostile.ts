@@ -18,6 +18,7 @@ import { s3 } from '../src/lib/storage/s3';
 
 const base = process.env.KINLOOP_BASE_URL!;
 const workerPid = Number(process.env.BENCH_WORKER_PID);
+const appPid = Number(process.env.BENCH_APP_PID);
 const MiB = 1024 * 1024;
 const PASSWORD = 'bench-hostile-2026';
 const knex = db();
@@ -34,6 +35,14 @@ async function peakMiB(pid: number): Promise<number> {
   const status = await readFile(`/proc/${pid}/status`, 'utf8').catch(() => '');
   const kb = Number(/VmHWM:\s+(\d+)/.exec(status)?.[1] ?? 0);
   return kb / 1024;
+}
+
+/** CPU seconds a process has used (user + system). */
+async function cpuSeconds(pid: number): Promise<number> {
+  const stat = await readFile(`/proc/${pid}/stat`, 'utf8').catch(() => '');
+  const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+  // utime and stime are fields 14 and 15 of stat(5), in clock ticks (100 a second on Linux).
+  return (Number(fields[11]) + Number(fields[12])) / 100;
 }
 
 /** Resets the high-water mark (Linux: 5 in clear_refs), so the next reading is this case's peak. */
@@ -293,6 +302,7 @@ async function main() {
   let worstParse = 0;
   for (const [name, run] of cases) {
     const objectsBefore = await objectCount();
+    const appCpuBefore = await cpuSeconds(appPid);
     const memory = new MemoryWatch();
     await memory.start();
     const poll = pollHealth();
@@ -314,12 +324,13 @@ async function main() {
       peaks.worker.toFixed(0),
       String((await objectCount()) - objectsBefore),
       seconds.toFixed(1),
+      ((await cpuSeconds(appPid)) - appCpuBefore).toFixed(2),
       during.toFixed(0),
       (during / idle).toFixed(2) + '×',
     ]);
   }
 
-  const header = ['case', 'HTTP', 'code / outcome', 'sent before answer', 'parse MiB', 'worker MiB', 'objects', 's', 'health p99 ms', 'ratio'];
+  const header = ['case', 'HTTP', 'code / outcome', 'sent before answer', 'parse MiB', 'worker MiB', 'objects', 's', 'app CPU s', 'health p99 ms', 'ratio'];
   const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
   const line = (cells: string[]) => cells.map((c, i) => (i === 0 || i === 2 ? c.padEnd(widths[i]) : c.padStart(widths[i]))).join('  ');
   console.log(`\n/api/health p99 idle: ${idle.toFixed(0)} ms (same run, same poller)\n`);
