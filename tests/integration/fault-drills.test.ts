@@ -128,6 +128,25 @@ describe('the app killed mid-upload', () => {
   });
 });
 
+describe('a clinic at its storage quota', () => {
+  it('is refused with 507 before a byte is stored, and says how much is used of how much', { timeout: 60_000 }, async () => {
+    // 0.0001 GB is 107,374 bytes (1 GB = 1024³ bytes here): room for the first file, not for the second.
+    await startApp({ KINLOOP_CLINIC_STORAGE_GB: '0.0001' });
+    const therapist = await new Http(origin).signIn(world.users.therapist.email, PASSWORD);
+    const prefix = `rides/${world.clinicId}/${world.otherClientId}/`;
+    const file = (startedAt: string) => [{ name: `quota-${startedAt}.csv`, content: rideCsv({ startedAt, minutes: 45 }) }];
+    const first = await therapist.json('POST', '/api/uploads?wait=0', formFor(world.otherClientId, file('2026-05-05T09:00:00Z')));
+    expect(first.status).toBe(202);
+    const objects = await objectsUnder(prefix);
+    const second = await therapist.json('POST', '/api/uploads?wait=0', formFor(world.otherClientId, file('2026-05-06T09:00:00Z')));
+    expect(second.status).toBe(507);
+    expect(second.body.error.code).toBe('storage_quota_exceeded');
+    expect(second.body.error.message).toMatch(/storage for ride files is full \(.+ of .+ used\), so nothing from this upload was saved/);
+    expect(await objectsUnder(prefix)).toEqual(objects);
+    expect(await world.knex('uploads').where({ original_name: 'quota-2026-05-06T09:00:00Z.csv' }).first()).toBeUndefined();
+  });
+});
+
 describe('PostgreSQL restarted under a running app', () => {
   const pgPort = drillPorts(4).pg;
   const appPort = drillPorts(4).app;

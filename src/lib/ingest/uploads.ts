@@ -79,13 +79,13 @@ async function storedBytes(knex: Knex, clinicId: string): Promise<number> {
   return Number(rows[0]?.bytes ?? 0);
 }
 
-const gigabytes = (bytes: number) => `${(bytes / 1024 ** 3).toFixed(1)} GB`;
+const size = (bytes: number) => (bytes >= 1024 ** 3 ? `${(bytes / 1024 ** 3).toFixed(1)} GB` : `${(bytes / 1024 ** 2).toFixed(1)} MB`);
 
 function quotaExceeded(used: number, quota: number): HttpError {
   return new HttpError(
     507,
     'storage_quota_exceeded',
-    `The clinic’s storage for ride files is full (${gigabytes(used)} of ${gigabytes(quota)} used), so nothing from this upload was saved. Ask the clinic administrator; the limit is set by whoever runs Kinloop for the clinic.`,
+    `The clinic’s storage for ride files is full (${size(used)} of ${size(quota)} used), so nothing from this upload was saved. Ask the clinic administrator; the limit is set by whoever runs Kinloop for the clinic.`,
   );
 }
 
