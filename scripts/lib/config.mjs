@@ -89,3 +89,18 @@ export function appEnv(config, extra = {}) {
 export function appConfig(env) {
   return { buildDir: path.resolve(env.KINLOOP_BUILD_DIR ?? 'dist'), port: num(env.PORT, 4321) };
 }
+
+/**
+ * The settings benches and the scale seed take from the caller: ports,
+ * folders and the demo password. Never DATABASE_URL, S3_ENDPOINT or SMTP_URL,
+ * so that a benchmark cannot write into a real database or bucket by accident.
+ */
+export function portAndFolderSettings(env) {
+  const keys = ['PORT', 'KINLOOP_DATA_DIR', 'KINLOOP_BUILD_DIR', 'KINLOOP_PG_PORT', 'KINLOOP_S3_PORT', 'KINLOOP_SMTP_PORT', 'KINLOOP_DEMO_PASSWORD'];
+  return Object.fromEntries(keys.filter((k) => env[k] !== undefined && env[k] !== '').map((k) => [k, env[k]]));
+}
+
+/** The data folder the settings name, without creating it (restore must find it empty). */
+export function dataDirOf(env, root) {
+  return path.resolve(root, env.KINLOOP_DATA_DIR ?? '.data');
+}
