@@ -15,7 +15,7 @@ const { buildDir, port } = appConfig(process.env);
 const SOCKET_ERRORS = new Set(['ECONNRESET', 'EPIPE', 'ECONNABORTED', 'ERR_STREAM_PREMATURE_CLOSE', 'ERR_STREAM_DESTROYED']);
 process.on('uncaughtException', (err) => {
   if (SOCKET_ERRORS.has(err?.code) || err?.message === 'aborted') {
-    console.error(`kinloop app: a request's connection failed (${err.code ?? err.message}); the server goes on`);
+    console.error(`kinloop app: uncaught error of a request's connection (${err.code ?? err.message}); the server goes on`);
     return;
   }
   console.error('kinloop app: uncaught exception, exiting:', err);
