@@ -12,7 +12,7 @@ import { generateRide } from '../src/lib/demo/ride-generator';
 import { writeBenchCycleA } from '../src/lib/demo/ride-layouts';
 import { saveRide } from '../src/lib/ingest/process';
 import { parseRide } from '../src/lib/rides/parse';
-import { decodeSeries } from '../src/lib/rides/series-codec';
+import { decodeSeries, encodeSeries } from '../src/lib/rides/series-codec';
 import type { ParsedRide, RideSeries } from '../src/lib/rides/types';
 
 const knex = db();
@@ -109,7 +109,7 @@ async function main() {
       const p = parse(bytes);
       const upload = await newUpload(client, user);
       const id = await knex.transaction((trx) =>
-        saveRide(trx, { upload, client, device: null, parsed: p, startedAt: new Date(Date.parse('2026-01-01') + uploadSeq * 86_400_000), source: 'file', warnings: [] }),
+        saveRide(trx, { upload, client, device: null, summary: p.summary, series: encodeSeries(p.series), startedAt: new Date(Date.parse('2026-01-01') + uploadSeq * 86_400_000), source: 'file', warnings: [] }),
       );
       rideIds.push(id);
     });
@@ -122,7 +122,7 @@ async function main() {
     const extra: string[] = [];
     for (let i = 0; i < 5; i++) {
       const upload = await newUpload(client, user);
-      extra.push(await knex.transaction((trx) => saveRide(trx, { upload, client, device: null, parsed, startedAt: new Date(Date.parse('2027-01-01') + i * 86_400_000 + rows), source: 'file', warnings: [] })));
+      extra.push(await knex.transaction((trx) => saveRide(trx, { upload, client, device: null, summary: parsed.summary, series: encodeSeries(parsed.series), startedAt: new Date(Date.parse('2027-01-01') + i * 86_400_000 + rows), source: 'file', warnings: [] })));
     }
     const perSession = ((await relationBytes(['rides', 'ride_series'])) - before) / 5;
     results.push(

@@ -1,17 +1,31 @@
-// Serves the built app (Astro's standalone Node handler) and then makes one
-// request so that the in-server worker starts right away, not on the first
-// visitor's request. The handler runs inside a server of ours so that every
-// answer, static files and the adapter's own redirects and errors included,
-// carries the security headers (pages replace the CSP with their own).
+// Serves the built app (Astro's standalone Node handler) and says so once it
+// answers. Background work runs in the worker process (`npm run worker`),
+// never here. The handler runs inside a server of ours so that every answer,
+// static files and the adapter's own redirects and errors included, carries
+// the security headers (pages replace the CSP with their own).
 import http from 'node:http';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { securityHeaders } from '../src/lib/http/security-headers.mjs';
+import { appConfig } from './lib/config.mjs';
 
-const buildDir = path.resolve(process.env.KINLOOP_BUILD_DIR ?? 'dist');
-const port = Number(process.env.PORT ?? 4321);
-const host = process.env.HOST ?? '127.0.0.1';
-const headers = Object.entries(securityHeaders({ https: (process.env.PUBLIC_URL ?? '').startsWith('https:') }));
+const { buildDir, port, host, https } = appConfig(process.env);
+const headers = Object.entries(securityHeaders({ https }));
+
+// A failure inside one request must never end the server. Every stream of a
+// request handles its own errors; this is the net under them: a socket error
+// that escaped (a client gone mid-request) is logged and the server goes on.
+// Anything else is a bug whose state is unknown: the process exits and the
+// supervisor (`npm start`) starts a fresh one.
+const SOCKET_ERRORS = new Set(['ECONNRESET', 'EPIPE', 'ECONNABORTED', 'ERR_STREAM_PREMATURE_CLOSE', 'ERR_STREAM_DESTROYED']);
+process.on('uncaughtException', (err) => {
+  if (SOCKET_ERRORS.has(err?.code) || err?.message === 'aborted') {
+    console.error(`kinloop app: uncaught error of a request's connection (${err.code ?? err.message}); the server goes on`);
+    return;
+  }
+  console.error('kinloop app: uncaught exception, exiting:', err);
+  process.exit(1);
+});
 
 process.env.ASTRO_NODE_AUTOSTART = 'disabled';
 const { handler } = await import(pathToFileURL(path.join(buildDir, 'server', 'entry.mjs')).href);

@@ -103,7 +103,8 @@ async function backup(): Promise<void> {
     await client.query('BEGIN ISOLATION LEVEL REPEATABLE READ READ ONLY');
     const snapshot = (await client.query('SELECT pg_export_snapshot() AS id')).rows[0].id as string;
     tables = await tableCounts(client);
-    uploads = (await client.query('SELECT storage_key, sha256 FROM uploads ORDER BY storage_key')).rows;
+    // Copies of the same bytes share one stored object: each object is copied once.
+    uploads = (await client.query('SELECT DISTINCT storage_key, sha256 FROM uploads ORDER BY storage_key')).rows;
     console.log(`[backup] dumping the database (${Object.keys(tables).length} tables, ${Object.values(tables).reduce((a, b) => a + b, 0).toLocaleString('en')} rows)…`);
     await runTool('pg_dump', [...pgToolArgs, '--format=custom', `--snapshot=${snapshot}`, '--file', path.join(folder, 'database.dump')]);
     await client.query('COMMIT');

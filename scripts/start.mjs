@@ -6,7 +6,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { appEnv, resolveConfig } from './lib/config.mjs';
-import { buildApp, dbTasks, startApp } from './lib/app.mjs';
+import { buildApp, dbTasks, startApp, startWorker } from './lib/app.mjs';
 import { ensureDependencies, ensurePostgresInstalled, log, startPostgres, startS3, startSmtp, Supervisor } from './lib/services.mjs';
 
 const root = path.dirname(path.dirname(fileURLToPath(import.meta.url)));
@@ -34,7 +34,7 @@ try {
   if (!config.external.smtp) await startSmtp(supervisor, config);
   dbTasks(config, env, ['migrate', 'seed']);
   await build;
-  await startApp(supervisor, config, env);
+  await Promise.all([startApp(supervisor, config, env), startWorker(supervisor, config, env)]);
   const DEMO_SIGN_INS = JSON.parse(readFileSync(path.join(root, 'src', 'lib', 'demo', 'sign-ins.json'), 'utf8'));
   const width = Math.max(...DEMO_SIGN_INS.map((s) => s.email.length));
   process.stdout.write(

@@ -5,7 +5,7 @@ import { spawn } from 'node:child_process';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { appEnv, resolveConfig } from './lib/config.mjs';
-import { buildApp, dbTasks, startApp } from './lib/app.mjs';
+import { buildApp, dbTasks, startApp, startWorker } from './lib/app.mjs';
 import {
   ensureChromiumInstalled,
   ensureDependencies,
@@ -66,7 +66,7 @@ try {
   await startSmtp(supervisor, fresh);
   dbTasks(fresh, env, ['migrate', 'seed']);
   await build;
-  await startApp(supervisor, fresh, env);
+  await Promise.all([startApp(supervisor, fresh, env), startWorker(supervisor, fresh, env)]);
 
   const testEnv = {
     ...env,

@@ -4,13 +4,8 @@ import { loadSession } from './lib/auth/sessions';
 import { config } from './lib/config';
 import { db } from './lib/db/knex';
 import { clientIp } from './lib/http/request';
-import { json } from './lib/http/respond';
+import { errorResponse, json } from './lib/http/respond';
 import { securityHeaders } from './lib/http/security-headers.mjs';
-import { startBackgroundWork } from './lib/jobs/background';
-
-// The in-server worker starts with the first request's module load;
-// scripts/serve.mjs makes that request as soon as the server listens.
-if (config().runWorkerInServer) void startBackgroundWork();
 
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
 const PUBLIC_PAGES = [/^\/sign-in\/?$/, /^\/forgot-password\/?$/, /^\/reset\/[^/]+\/?$/, /^\/invite\/[^/]+\/?$/, /^\/unsubscribe\/[^/]+\/?$/];
@@ -52,7 +47,12 @@ export const onRequest = defineMiddleware(async (context, next) => {
     }
 
     const sessionId = await readSessionCookie(cookies.get(SESSION_COOKIE)?.value);
-    locals.viewer = sessionId ? await loadSession(db(), sessionId) : null;
+    try {
+      locals.viewer = sessionId ? await loadSession(db(), sessionId) : null;
+    } catch (err) {
+      // The database is away: a 503 that says so, not a crash page.
+      return errorResponse(err);
+    }
     if (sessionId && !locals.viewer) cookies.delete(SESSION_COOKIE, { path: '/' });
 
     const isApi = url.pathname.startsWith('/api/');

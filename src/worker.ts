@@ -1,13 +1,15 @@
-// `npm run worker`: the background worker as its own process, for running it
-// apart from the app server (start the server with KINLOOP_WORKER=off then).
+// `npm run worker`: the background worker (parse jobs, flags, mail, sweeps)
+// as its own process. `npm start` runs one beside the app; more can run for a
+// scaled-out setup, all sharing the job queue in PostgreSQL.
 import { closeDb } from './lib/db/knex';
-import { startBackgroundWork } from './lib/jobs/background';
+import { startBackgroundWork, stopBackgroundWork } from './lib/jobs/background';
 import { stopQueue } from './lib/jobs/queue';
 
 await startBackgroundWork();
 console.log('kinloop worker ready');
 
 const stop = async () => {
+  stopBackgroundWork();
   await stopQueue();
   await closeDb();
   process.exit(0);

@@ -24,11 +24,26 @@ export function dbTasks(config, env, tasks) {
   run(bin(config.root, 'tsx'), [path.join(config.root, 'scripts', 'db.ts'), ...tasks], { cwd: config.root, env: withOwner });
 }
 
+/** The web server: pages and the API. It stores files and queues jobs; it never parses. */
 export function startApp(supervisor, config, env) {
   log(`starting the app on ${config.publicUrl}…`);
   return supervisor.start('app', process.execPath, [path.join(config.root, 'scripts', 'serve.mjs')], {
     cwd: config.root,
     env,
     ready: /kinloop app ready/,
+  });
+}
+
+/**
+ * The worker (`npm run worker`): parse jobs in parse processes of its own,
+ * flags, mail and sweeps. One node process with tsx's loader (not the tsx
+ * launcher, which would put a second process between the supervisor and it).
+ */
+export function startWorker(supervisor, config, env) {
+  log('starting the worker…');
+  return supervisor.start('worker', process.execPath, ['--import', 'tsx', path.join(config.root, 'src', 'worker.ts')], {
+    cwd: config.root,
+    env,
+    ready: /kinloop worker ready/,
   });
 }

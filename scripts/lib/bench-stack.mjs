@@ -149,12 +149,12 @@ export async function ensureFreshBuild(config, env) {
 /**
  * A running app on the settings' folder and ports: the one already serving
  * there, or one this run starts (services, migrations, the demo seed when
- * asked, then the app without its background worker, so that no job runs
- * inside the measured server). `pid` is set only for an app this run started.
+ * asked, then the app; no worker is started, so no job runs beside the
+ * measured server). `pid` is set only for an app this run started.
  */
 export async function ensureInstance(supervisor, bin, settings, root, { seedDemo }) {
   const config = configOf(settings, root);
-  const env = appEnv(config, { NODE_ENV: 'production', KINLOOP_WORKER: 'off' });
+  const env = appEnv(config, { NODE_ENV: 'production' });
   if (await isServing(config)) {
     log(`reusing the app already serving on 127.0.0.1:${config.port} (${config.dataDir})`);
     return { config, env, pid: null };

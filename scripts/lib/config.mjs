@@ -121,6 +121,16 @@ export function appEnv(config, extra = {}) {
   return env;
 }
 
+/** What scripts/serve.mjs needs: the build to serve and the port it answers on. */
+export function appConfig(env) {
+  return {
+    buildDir: path.resolve(env.KINLOOP_BUILD_DIR ?? 'dist'),
+    port: num(env.PORT, 4321),
+    host: env.HOST ?? '127.0.0.1',
+    https: (env.PUBLIC_URL ?? '').startsWith('https:'),
+  };
+}
+
 /**
  * The settings benches and the scale seed take from the caller: ports,
  * folders and the demo password. Never DATABASE_URL, S3_ENDPOINT or SMTP_URL,

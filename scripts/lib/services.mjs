@@ -202,13 +202,19 @@ export function startPostgres(bin, config) {
   };
 }
 
+/** Waits before restarting a process that exited: 1 s, 2 s, 4 s … at most 30 s. */
+const RESTART_DELAYS_S = [1, 2, 4, 8, 16, 30];
+/** A process that stayed up this long is restarted from the shortest wait again. */
+const STABLE_AFTER_MS = 60_000;
+
 /**
  * Keeps track of the long-running processes one command started, so that
- * Ctrl-C (or a failure) stops every one of them.
+ * Ctrl-C (or a failure) stops every one of them, and restarts a process that
+ * exits when nobody asked it to (with back-off), logging each restart.
  */
 export class Supervisor {
   constructor() {
-    this.children = [];
+    this.services = [];
     this.stops = [];
     this.stopping = false;
   }
@@ -220,20 +226,35 @@ export class Supervisor {
 
   /**
    * Starts a process and resolves when a line of its output matches `ready`.
-   * A process that exits before that rejects with its output.
+   * A process that exits before that rejects with its output. Once it has
+   * been ready, an exit that `stopAll` did not cause restarts it
+   * (`restart: false` turns that off).
+   * @param {string} name
+   * @param {string} cmd
+   * @param {string[]} args
+   * @param {{ env?: NodeJS.ProcessEnv, cwd?: string, ready?: RegExp, timeoutMs?: number, echo?: boolean, restart?: boolean }} [options]
+   * @returns {Promise<import('node:child_process').ChildProcess>}
    */
-  start(name, cmd, args, { env, cwd, ready, timeoutMs = 120_000, echo = false } = {}) {
-    const child = spawn(cmd, args, { env, cwd, stdio: ['ignore', 'pipe', 'pipe'] });
-    this.children.push({ name, child });
+  start(name, cmd, args, { env, cwd, ready, timeoutMs = 120_000, echo = false, restart = true } = {}) {
+    const service = { name, child: null, timer: null, failures: 0, startedAt: 0 };
+    this.services.push(service);
+    return this.#spawn(service, cmd, args, { env, cwd, ready, timeoutMs, echo, restart });
+  }
+
+  #spawn(service, cmd, args, opts) {
+    const { name } = service;
+    const child = spawn(cmd, args, { env: opts.env, cwd: opts.cwd, stdio: ['ignore', 'pipe', 'pipe'] });
+    service.child = child;
+    service.startedAt = Date.now();
     let output = '';
     return new Promise((resolve, reject) => {
-      const timer = setTimeout(() => reject(new Error(`${name} did not start within ${timeoutMs / 1000} s\n${output}`)), timeoutMs);
-      let isReady = !ready;
+      const timer = setTimeout(() => reject(new Error(`${name} did not start within ${opts.timeoutMs / 1000} s\n${output}`)), opts.timeoutMs);
+      let isReady = !opts.ready;
       const onData = (stream) => (chunk) => {
         const text = chunk.toString();
         if (!isReady) output += text;
-        if (echo || isReady) stream.write(text.replace(/^(?=.)/gm, `[${name}] `));
-        if (!isReady && ready.test(output)) {
+        if (opts.echo || isReady) stream.write(text.replace(/^(?=.)/gm, `[${name}] `));
+        if (!isReady && opts.ready.test(output)) {
           isReady = true;
           clearTimeout(timer);
           resolve(child);
@@ -241,10 +262,34 @@ export class Supervisor {
       };
       child.stdout.on('data', onData(process.stdout));
       child.stderr.on('data', onData(process.stderr));
+      child.on('error', (err) => log(`${name}: ${err.message}`));
       child.on('exit', (code, signal) => {
         clearTimeout(timer);
-        if (!isReady) reject(new Error(`${name} exited (${signal ?? code}) before it was ready\n${output}`));
-        else if (!this.stopping) log(`${name} stopped (${signal ?? code})`);
+        if (this.stopping) return;
+        const how = signal ?? `exit ${code}`;
+        const wasReady = isReady;
+        if (!wasReady && service.failures === 0 && !service.restarted) {
+          reject(new Error(`${name} exited (${how}) before it was ready\n${output}`));
+          return;
+        }
+        if (!opts.restart) {
+          log(`${name} stopped (${how})`);
+          return;
+        }
+        if (wasReady && Date.now() - service.startedAt > STABLE_AFTER_MS) service.failures = 0;
+        const wait = RESTART_DELAYS_S[Math.min(service.failures, RESTART_DELAYS_S.length - 1)];
+        service.failures++;
+        log(`${name} exited unexpectedly (${how}); restarting it in ${wait} s`);
+        if (!wasReady && output.trim()) process.stderr.write(output.replace(/^(?=.)/gm, `[${name}] `));
+        service.timer = setTimeout(() => {
+          service.timer = null;
+          if (this.stopping) return;
+          service.restarted = true;
+          this.#spawn(service, cmd, args, { ...opts, timeoutMs: Math.max(opts.timeoutMs, 120_000) }).then(
+            () => log(`${name} is running again`),
+            () => undefined,
+          );
+        }, wait * 1000);
       });
       if (isReady) resolve(child);
     });
@@ -253,11 +298,12 @@ export class Supervisor {
   async stopAll() {
     if (this.stopping) return;
     this.stopping = true;
+    for (const s of this.services) if (s.timer) clearTimeout(s.timer);
     await Promise.all(
-      this.children.reverse().map(
+      [...this.services].reverse().map(
         ({ child }) =>
           new Promise((resolve) => {
-            if (child.exitCode !== null || child.signalCode !== null) return resolve();
+            if (!child || child.exitCode !== null || child.signalCode !== null) return resolve();
             const kill = setTimeout(() => child.kill('SIGKILL'), 5000);
             child.once('exit', () => {
               clearTimeout(kill);

@@ -34,7 +34,16 @@ export interface AppConfig {
   trustProxy: boolean;
   sessionIdleHours: number;
   sessionAbsoluteDays: number;
-  runWorkerInServer: boolean;
+  /** PostgreSQL schema of the job queue; a separate one isolates a second set of workers. */
+  queueSchema: string;
+  /** How often the queue looks for jobs whose worker died, in seconds. */
+  queueMaintenanceS: number;
+  /** Seconds between the last parsed file of a batch and the flag evaluation. */
+  flagDelayS: number;
+  /** Parse processes each worker runs side by side. */
+  parseProcesses: number;
+  /** Bytes of ride files one clinic may store. */
+  clinicStorageQuotaBytes: number;
 }
 
 let cached: AppConfig | null = null;
@@ -66,7 +75,11 @@ export function config(): AppConfig {
     trustProxy: process.env.KINLOOP_TRUST_PROXY === '1',
     sessionIdleHours: int('KINLOOP_SESSION_IDLE_HOURS', 24 * 7),
     sessionAbsoluteDays: int('KINLOOP_SESSION_ABSOLUTE_DAYS', 30),
-    runWorkerInServer: process.env.KINLOOP_WORKER !== 'off',
+    queueSchema: process.env.KINLOOP_QUEUE_SCHEMA || 'pgboss',
+    queueMaintenanceS: int('KINLOOP_QUEUE_MAINTENANCE_S', 30),
+    flagDelayS: int('KINLOOP_FLAG_DELAY_S', 10),
+    parseProcesses: Math.max(1, Math.floor(int('KINLOOP_PARSE_PROCESSES', 1))),
+    clinicStorageQuotaBytes: int('KINLOOP_CLINIC_STORAGE_GB', 100) * 1024 ** 3,
   };
   return cached;
 }

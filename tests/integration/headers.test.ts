@@ -105,7 +105,7 @@ describe('HSTS when PUBLIC_URL is https', () => {
     const port = Number(new URL(process.env.KINLOOP_BASE_URL!).port) + 3;
     const app = spawn(process.execPath, ['scripts/serve.mjs'], {
       cwd: process.env.KINLOOP_ROOT ?? process.cwd(),
-      env: { ...process.env, PORT: String(port), PUBLIC_URL: `https://localhost:${port}`, KINLOOP_WORKER: 'off' },
+      env: { ...process.env, PORT: String(port), PUBLIC_URL: `https://localhost:${port}` },
       stdio: ['ignore', 'pipe', 'pipe'],
     });
     children.push(app);

@@ -1,8 +1,8 @@
-// Failures of the parts around ingest: a worker killed in the middle of a job,
-// and the object store going away during an upload. Each test runs processes
-// of its own (a worker on its own queue schema; an app server with its own
-// s3rver), so the shared test stack is never disturbed.
-import { spawn, type ChildProcess } from 'node:child_process';
+// Fault drills around reading ride files: a worker killed in the middle of a
+// job, a file that cannot be read on any try, and the object store going away
+// during an upload and while jobs wait. Each runs processes of its own (a
+// worker on its own queue schema; an app server with its own s3rver), so the
+// shared test stack is never disturbed.
 import { randomUUID } from 'node:crypto';
 import { mkdtempSync } from 'node:fs';
 import os from 'node:os';
@@ -13,141 +13,213 @@ import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb } from '../../src/lib/db/knex';
 import { putObjectStream } from '../../src/lib/storage/s3';
 import { Http } from '../support/http';
-import { rideCsv } from '../support/rides';
+import {
+  alive,
+  appArgs,
+  childrenOf,
+  drillPorts,
+  s3Args,
+  startProcess,
+  stopAllProcesses,
+  stopProcess,
+  until,
+  workerArgs,
+} from '../support/processes';
+import { formFor, rideCsv } from '../support/rides';
 import { createWorld, PASSWORD, type World } from '../support/world';
-
-const root = process.env.KINLOOP_ROOT ?? process.cwd();
-const children: ChildProcess[] = [];
-
-function start(cmd: string, args: string[], env: NodeJS.ProcessEnv, ready: RegExp): Promise<ChildProcess> {
-  const child = spawn(cmd, args, { cwd: root, env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
-  children.push(child);
-  let out = '';
-  return new Promise((resolve, reject) => {
-    const timer = setTimeout(() => reject(new Error(`${args.join(' ')} did not start:\n${out}`)), 60_000);
-    const onData = (d: Buffer) => {
-      out += d.toString();
-      if (ready.test(out)) {
-        clearTimeout(timer);
-        resolve(child);
-      }
-    };
-    child.stdout!.on('data', onData);
-    child.stderr!.on('data', onData);
-    child.on('exit', (code) => {
-      clearTimeout(timer);
-      if (!ready.test(out)) reject(new Error(`${args.join(' ')} exited ${code}:\n${out}`));
-    });
-  });
-}
-
-function stop(child: ChildProcess, signal: NodeJS.Signals = 'SIGTERM'): Promise<void> {
-  return new Promise((resolve) => {
-    if (child.exitCode !== null || child.signalCode !== null) return resolve();
-    child.once('exit', () => resolve());
-    child.kill(signal);
-  });
-}
 
 let world: World;
 beforeAll(async () => {
   world = await createWorld('failures');
 });
-afterEach(async () => {
-  await Promise.all(children.splice(0).map((c) => stop(c, 'SIGKILL')));
-});
+afterEach(stopAllProcesses);
 afterAll(closeDb);
 
-// The worker runs in one process (node with tsx's loader, not the tsx
-// launcher, which keeps a child alive when it is killed) so that SIGKILL
-// really ends it.
-const worker = ['--import', 'tsx', 'src/worker.ts'];
+/** A stored file and its queued upload, as POST /api/uploads leaves them. */
+async function queuedUpload(name: string, content = rideCsv({ startedAt: new Date(Date.UTC(2026, 3, 1) + Math.random() * 1e9).toISOString() })) {
+  const key = `rides/${world.clinicId}/${world.clientId}/${randomUUID()}`;
+  await putObjectStream(key, Readable.from([Buffer.from(content)]));
+  const [upload] = await world.knex('uploads')
+    .insert({ client_id: world.clientId, clinic_id: world.clinicId, uploaded_by: world.users.carer.id, original_name: name, byte_size: content.length, sha256: randomUUID(), storage_key: key, status: 'queued', enqueued_at: new Date() })
+    .returning(['id', 'storage_key']);
+  return upload as { id: string; storage_key: string };
+}
 
-describe('a worker killed mid-job', () => {
-  it('loses nothing: after a restart the job runs again and the file becomes a session', { timeout: 150_000 }, async () => {
-    const schema = `pgboss_crash_${randomUUID().slice(0, 8)}`;
-    const workerEnv = { KINLOOP_QUEUE_SCHEMA: schema, KINLOOP_QUEUE_MAINTENANCE_S: '1' };
-    // A stored file and its queued upload, as POST /api/uploads leaves them.
-    const key = `rides/${world.clinicId}/${world.clientId}/${randomUUID()}`;
-    const content = rideCsv({ startedAt: '2026-04-01T09:00:00Z' });
-    await putObjectStream(key, Readable.from([Buffer.from(content)]));
-    const [upload] = await world.knex('uploads')
-      .insert({ client_id: world.clientId, clinic_id: world.clinicId, uploaded_by: world.users.carer.id, original_name: 'crash.csv', byte_size: content.length, sha256: randomUUID(), storage_key: key, status: 'queued', enqueued_at: new Date() })
-      .returning('id');
-
-    const first = await start(process.execPath, worker, { ...workerEnv, KINLOOP_PARSE_HOLD_MS: '600000' }, /kinloop worker ready/);
-    const boss = new PgBoss({ connectionString: process.env.DATABASE_URL!, schema });
-    await boss.start();
-    try {
-      const jobId = (await boss.send('ride-parse', { uploadId: upload.id }, { expireInSeconds: 2, retryDelay: 0 }))!;
-      const deadline = Date.now() + 30_000;
-      while ((await boss.getJobById('ride-parse', jobId))?.state !== 'active') {
-        if (Date.now() > deadline) throw new Error('the job never became active');
-        await new Promise((r) => setTimeout(r, 200));
-      }
-      await stop(first, 'SIGKILL');
-      expect((await world.knex('uploads').where({ id: upload.id }).first()).status).toBe('queued');
-
-      await start(process.execPath, worker, workerEnv, /kinloop worker ready/);
-      let row = await world.knex('uploads').where({ id: upload.id }).first();
-      const until = Date.now() + 90_000;
-      while (row.status === 'queued' && Date.now() < until) {
-        await new Promise((r) => setTimeout(r, 300));
-        row = await world.knex('uploads').where({ id: upload.id }).first();
-      }
-      expect(row.status).toBe('accepted');
-      expect(await world.knex('rides').where({ upload_id: upload.id }).first()).toBeDefined();
-    } finally {
+/** A job queue of the drill's own, and the environment of a worker that works it. */
+async function ownQueue(extra: NodeJS.ProcessEnv = {}) {
+  const schema = `pgboss_drill_${randomUUID().slice(0, 8)}`;
+  const env = { KINLOOP_QUEUE_SCHEMA: schema, KINLOOP_QUEUE_MAINTENANCE_S: '1', ...extra };
+  const boss = new PgBoss({ connectionString: process.env.DATABASE_URL!, schema });
+  await boss.start();
+  return {
+    env,
+    boss,
+    async close() {
       await boss.stop({ graceful: false, wait: true });
       await world.knex.raw(`DROP SCHEMA IF EXISTS ${schema} CASCADE`);
+    },
+    jobState: async (id: string) => (await boss.getJobById('ride-parse', id))?.state,
+  };
+}
+
+const uploadRow = (id: string) => world.knex('uploads').where({ id }).first();
+
+describe('a worker killed mid-job', () => {
+  it('after the session is committed, before the job is done: the job runs again and the session appears exactly once', { timeout: 120_000 }, async () => {
+    const upload = await queuedUpload('crash.csv');
+    const q = await ownQueue();
+    // Two connections of the test's own: one holds the client's placement lock
+    // (as a long parse would), the other the job table (so the worker cannot
+    // report the job done).
+    const placement = await world.knex.client.acquireConnection();
+    const jobs = await world.knex.client.acquireConnection();
+    const lockPlacement = () => placement.query('SELECT pg_advisory_lock(hashtext($1))', [`rides:${world.clientId}`]);
+
+    // A waiting request for that advisory lock (its key's low 32 bits are pg_locks.objid).
+    const waitingForLock = () =>
+      until(
+        'worker waiting for the placement lock',
+        async () =>
+          (await world.knex.raw(`SELECT count(*)::int AS n FROM pg_locks WHERE locktype = 'advisory' AND NOT granted AND objid::bigint = (hashtext(?)::bigint & 4294967295)`, [`rides:${world.clientId}`])).rows[0].n,
+        (n) => n > 0,
+      );
+    try {
+      await lockPlacement();
+      const first = await startProcess(workerArgs, q.env, /kinloop worker ready/);
+      // The job expires 4 s after a worker took it: then the queue gives it to the next worker.
+      const jobId = (await q.boss.send('ride-parse', { uploadId: upload.id }, { expireInSeconds: 4, retryDelay: 0 }))!;
+      expect(jobId).toBeTruthy();
+      // The file has been read (in a parse process) and the worker waits to place the session.
+      await waitingForLock();
+      const parsers = await childrenOf(first.child.pid!);
+      expect(parsers.length).toBeGreaterThan(0);
+      // Hold the job table too, so that the worker cannot report the job done; then let it commit.
+      await jobs.query('BEGIN');
+      await jobs.query(`LOCK TABLE ${q.env.KINLOOP_QUEUE_SCHEMA}.job IN EXCLUSIVE MODE`);
+      await placement.query('SELECT pg_advisory_unlock_all()');
+      await until('session committed', () => uploadRow(upload.id), (r) => r.status === 'accepted');
+      // Killed after the session was committed, before the job was marked done.
+      await stopProcess(first.child, 'SIGKILL');
+      await jobs.query('ROLLBACK');
+      expect(await q.jobState(jobId)).not.toBe('completed');
+      // Its parse process ends with it.
+      await until('parse process of the killed worker', async () => parsers.filter(alive).length, (n) => n === 0, 10_000);
+
+      // The job runs again on the next worker and finds the upload read.
+      await startProcess(workerArgs, q.env, /kinloop worker ready/);
+      await until('job done', () => q.jobState(jobId), (s) => s === 'completed', 60_000);
+      const rides = await world.knex('rides').where({ upload_id: upload.id });
+      expect(rides).toHaveLength(1);
+      expect((await uploadRow(upload.id)).ride_id).toBe(rides[0].id);
+    } finally {
+      await placement.query('SELECT pg_advisory_unlock_all()').catch(() => undefined);
+      await jobs.query('ROLLBACK').catch(() => undefined);
+      world.knex.client.releaseConnection(placement);
+      world.knex.client.releaseConnection(jobs);
+      await stopAllProcesses();
+      await q.close();
     }
   });
 });
 
-describe('the object store stopping during an upload', () => {
-  it('answers 503 with a clear message and leaves no upload row pointing at nothing', async () => {
-    const base = Number(process.env.KINLOOP_S3_PORT ?? 4578);
-    const s3Port = base + 5;
-    const appPort = Number(new URL(process.env.KINLOOP_BASE_URL!).port) + 5;
+describe('a file that cannot be read on any try', () => {
+  it('ends failed with the last error when its job runs out of retries, and its uploader can try again', { timeout: 90_000 }, async () => {
+    // The upload's object is missing: every read fails the same way.
+    const upload = await queuedUpload('lost-object.csv');
+    const content = rideCsv({ startedAt: '2026-04-20T09:00:00Z' });
+    await world.knex('uploads').where({ id: upload.id }).update({ storage_key: `${upload.storage_key}-missing` });
+    const q = await ownQueue();
+    try {
+      await startProcess(workerArgs, q.env, /kinloop worker ready/);
+      expect(await q.boss.send('ride-parse', { uploadId: upload.id }, { retryLimit: 1, retryDelay: 0 })).toBeTruthy();
+      const failed = await until('upload failed', () => uploadRow(upload.id), (r) => r.status !== 'queued', 60_000);
+      expect(failed.status).toBe('failed');
+      expect(failed.attempts).toBe(2);
+      expect(failed.error.code).toBe('read_failed');
+      expect(failed.error.message).toMatch(/could not be fetched from the file store/);
+      expect(failed.error.message).toMatch(/Try again/);
+
+      // The uploader sees it; the rider (who did not upload it) may not retry it; the uploader may.
+      const carer = await world.as('carer');
+      const shown = await carer.json('GET', `/api/uploads?clientId=${world.clientId}`);
+      expect(shown.body.uploads.find((u: { id: string }) => u.id === upload.id)).toMatchObject({ status: 'failed', error: { code: 'read_failed' } });
+      expect((await (await world.as('client')).json('POST', `/api/uploads/${upload.id}/reprocess`)).status).toBe(403);
+      // The file is found again (restored from a backup, say): trying again reads it.
+      await putObjectStream(`${upload.storage_key}-missing`, Readable.from([Buffer.from(content)]));
+      const retried = await carer.json('POST', `/api/uploads/${upload.id}/reprocess`);
+      expect(retried.status).toBe(202);
+      expect(retried.body.status).toBe('queued');
+      const after = await until('upload read on the retry', () => uploadRow(upload.id), (r) => r.status !== 'queued');
+      expect(after.status).toBe('accepted');
+    } finally {
+      await stopAllProcesses();
+      await q.close();
+    }
+  });
+});
+
+describe('the object store stopping', () => {
+  it('during an upload: 503 storage_unavailable, nothing stored; jobs waiting meanwhile complete when it is back', { timeout: 120_000 }, async () => {
+    const ports = drillPorts(5);
     const s3dir = mkdtempSync(path.join(os.tmpdir(), 'kinloop-s3-'));
-    const s3proc = await start(process.execPath, ['s3-fake/launch.mjs', '--port', String(s3Port), '--directory', s3dir, '--bucket', 'kinloop-rides'], {}, /s3-fake ready/);
-    await start(process.execPath, ['scripts/serve.mjs'], { PORT: String(appPort), S3_ENDPOINT: `http://127.0.0.1:${s3Port}`, KINLOOP_WORKER: 'off' }, /kinloop app ready/);
-    const http = await new Http(`http://127.0.0.1:${appPort}`).signIn(world.users.carer.email, PASSWORD);
-    const name = `interrupted-${randomUUID()}.csv`;
-    const boundary = `----kinloop${randomUUID()}`;
-    const line = '1,active,40,20,60,60\n';
-    const chunk = Buffer.from(line.repeat(Math.ceil(256 * 1024 / line.length)));
-    let sent = 0;
-    const body = new ReadableStream<Uint8Array>({
-      async pull(controller) {
-        if (sent === 0) {
-          controller.enqueue(Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="clientId"\r\n\r\n${world.clientId}\r\n--${boundary}\r\nContent-Disposition: form-data; name="files"; filename="${name}"\r\nContent-Type: text/csv\r\n\r\ntime,phase,cadence,power,quad l,quad r\n`));
-        } else if (sent < 16) {
-          // Half-way through the file, the store goes away.
-          if (sent === 8) await stop(s3proc, 'SIGKILL');
-          controller.enqueue(chunk);
-        } else {
-          controller.enqueue(Buffer.from(`\r\n--${boundary}--\r\n`));
-          controller.close();
-        }
-        sent++;
-        await new Promise((r) => setTimeout(r, 20));
-      },
-    });
-    const res = await fetch(`${http.origin}/api/uploads`, {
-      method: 'POST',
-      headers: { cookie: http.cookie!, origin: http.origin, 'content-type': `multipart/form-data; boundary=${boundary}` },
-      body,
-      duplex: 'half',
-    } as RequestInit);
-    expect(res.status).toBe(503);
-    const error = (await res.json()).error;
-    expect(error.code).toBe('storage_unavailable');
-    expect(error.message).toMatch(/nothing was saved/i);
-    expect(await world.knex('uploads').where({ original_name: name }).first()).toBeUndefined();
-    // The instance's health check names what is down.
-    const health = await fetch(`${http.origin}/api/health`);
-    expect(health.status).toBe(503);
-    expect(await health.json()).toMatchObject({ db: 'ok', storage: 'down', mail: 'ok', down: ['storage'] });
+    const q = await ownQueue({ S3_ENDPOINT: `http://127.0.0.1:${ports.s3}` });
+    try {
+      let s3proc = await startProcess(s3Args(ports.s3, s3dir), {}, /s3-fake ready/);
+      await startProcess(appArgs, { ...q.env, PORT: String(ports.app) }, /kinloop app ready/);
+      const http = await new Http(`http://127.0.0.1:${ports.app}`).signIn(world.users.carer.email, PASSWORD);
+
+      // A file stored while the store is up waits in the queue (no worker yet).
+      const waiting = await http.json('POST', '/api/uploads?wait=0', formFor(world.clientId, [{ name: 'waits.csv', content: rideCsv({ startedAt: '2026-04-22T09:00:00Z' }) }]));
+      expect(waiting.status).toBe(202);
+      const waitingId = waiting.body.files[0].uploadId;
+
+      const name = `interrupted-${randomUUID()}.csv`;
+      const boundary = `----kinloop${randomUUID()}`;
+      const line = '1,active,40,20,60,60\n';
+      const chunk = Buffer.from(line.repeat(Math.ceil((256 * 1024) / line.length)));
+      let sent = 0;
+      const body = new ReadableStream<Uint8Array>({
+        async pull(controller) {
+          if (sent === 0) {
+            controller.enqueue(Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="clientId"\r\n\r\n${world.clientId}\r\n--${boundary}\r\nContent-Disposition: form-data; name="files"; filename="${name}"\r\nContent-Type: text/csv\r\n\r\ntime,phase,cadence,power,quad l,quad r\n`));
+          } else if (sent < 16) {
+            // Half-way through the file, the store goes away.
+            if (sent === 8) await stopProcess(s3proc.child, 'SIGKILL');
+            controller.enqueue(chunk);
+          } else {
+            controller.enqueue(Buffer.from(`\r\n--${boundary}--\r\n`));
+            controller.close();
+          }
+          sent++;
+          await new Promise((r) => setTimeout(r, 20));
+        },
+      });
+      const res = await fetch(`${http.origin}/api/uploads`, {
+        method: 'POST',
+        headers: { cookie: http.cookie!, origin: http.origin, 'content-type': `multipart/form-data; boundary=${boundary}` },
+        body,
+        duplex: 'half',
+      } as RequestInit);
+      expect(res.status).toBe(503);
+      const error = (await res.json()).error;
+      expect(error.code).toBe('storage_unavailable');
+      expect(error.message).toMatch(/nothing was saved/i);
+      expect(await world.knex('uploads').where({ original_name: name }).first()).toBeUndefined();
+      // The instance's health check names what is down.
+      const health = await fetch(`${http.origin}/api/health`);
+      expect(health.status).toBe(503);
+      expect(await health.json()).toMatchObject({ db: 'ok', storage: 'down', mail: 'ok', down: ['storage'] });
+
+      // The worker starts while the store is away: its reads fail and are retried, not given up.
+      await startProcess(workerArgs, q.env, /kinloop worker ready/);
+      const tried = await until('a failed read', () => uploadRow(waitingId), (r) => r.attempts >= 1, 30_000);
+      expect(tried.status).toBe('queued');
+      s3proc = await startProcess(s3Args(ports.s3, s3dir), {}, /s3-fake ready/);
+      const done = await until('waiting upload read', () => uploadRow(waitingId), (r) => r.status !== 'queued', 60_000);
+      expect(done.status).toBe('accepted');
+    } finally {
+      await stopAllProcesses();
+      await q.close();
+    }
   });
 });

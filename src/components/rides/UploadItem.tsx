@@ -27,6 +27,8 @@ export function outcomeSentence(entry: UploadEntry, outcome: UploadOutcome): str
         : `${name} is already in Kinloop.`;
     case 'refused':
       return `${name} refused${outcome.error.line ? ` at line ${outcome.error.line}` : ''}: ${outcome.error.message}`;
+    case 'unread':
+      return `${name} could not be read: ${outcome.error.message}`;
     case 'failed':
       return `${name} was not uploaded: ${outcome.message}`;
   }
@@ -99,6 +101,13 @@ function Outcome({ entry, outcome }: { entry: UploadEntry; outcome: UploadOutcom
           <p>{outcome.error.message}</p>
         </div>
       );
+    case 'unread':
+      return (
+        <div>
+          <p className="font-semibold text-brick">Could not be read</p>
+          <p>{outcome.error.message}</p>
+        </div>
+      );
     case 'failed':
       return (
         <div>
@@ -109,7 +118,7 @@ function Outcome({ entry, outcome }: { entry: UploadEntry; outcome: UploadOutcom
   }
 }
 
-export function UploadItem({ entry, onRetry }: { entry: UploadEntry; onRetry: (key: string) => void }) {
+export function UploadItem({ entry, onRetry, onTryAgain }: { entry: UploadEntry; onRetry: (key: string) => void; onTryAgain: (key: string, uploadId: string) => void }) {
   const { stage, file } = entry;
   // The request's total includes the form around the file, so progress is measured against it.
   const percent = stage.stage === 'waiting' ? 0 : stage.stage === 'sending' ? (stage.total ? Math.min(100, Math.round((stage.loaded / stage.total) * 100)) : 0) : 100;
@@ -145,6 +154,11 @@ export function UploadItem({ entry, onRetry }: { entry: UploadEntry; onRetry: (k
           {stage.outcome.kind === 'failed' && (
             <Button variant="secondary" className="mt-3" onClick={() => onRetry(entry.key)}>
               Send {file.name} again
+            </Button>
+          )}
+          {stage.outcome.kind === 'unread' && (
+            <Button variant="secondary" className="mt-3" onClick={() => onTryAgain(entry.key, (stage.outcome as { uploadId: string }).uploadId)}>
+              Try again to read {file.name}
             </Button>
           )}
         </div>

@@ -1,5 +1,5 @@
 import { useEffect, useId, useRef, useState } from 'react';
-import { useApi } from '../api';
+import { api, ApiError, useApi } from '../api';
 import { Button } from '../ui/Button';
 import { EmptyState } from '../ui/EmptyState';
 import { SelectField } from '../ui/Field';
@@ -9,6 +9,7 @@ import { sendRideFile, type RideFileRequest } from './send-ride-file';
 import { settleUpload } from './settle-upload';
 import type { UploadOutcome, UploadStage } from './types';
 import { outcomeSentence, UploadItem, type UploadEntry } from './UploadItem';
+import { RecentUploads } from './RecentUploads';
 
 interface ClientChoice {
   id: string;
@@ -49,6 +50,8 @@ function Uploader({ clients, profiles, initialClientId }: { clients: ClientChoic
   const [profileId, setProfileId] = useState('');
   const [entries, setEntries] = useState<UploadEntry[]>([]);
   const [messages, setMessages] = useState<string[]>([]);
+  // Counts answers of this visit, so the list of recent files reloads after each.
+  const [finished, setFinished] = useState(0);
   const jobs = useRef(new Map<string, RideFileRequest & { entry: UploadEntry }>());
   const queue = useRef<string[]>([]);
   const sending = useRef(0);
@@ -80,6 +83,7 @@ function Uploader({ clients, profiles, initialClientId }: { clients: ClientChoic
     if (!job) return;
     setStage(key, { stage: 'done', outcome });
     setMessages((m) => [...m, outcomeSentence(job.entry, outcome)]);
+    setFinished((n) => n + 1);
   }
 
   async function send(key: string) {
@@ -125,13 +129,27 @@ function Uploader({ clients, profiles, initialClientId }: { clients: ClientChoic
     pump();
   }
 
+  // A stored file Kinloop could not read: ask for it to be read again, and follow it as before.
+  async function tryAgain(key: string, uploadId: string) {
+    const job = jobs.current.get(key);
+    if (!job) return;
+    setStage(key, { stage: 'reading' });
+    try {
+      await api('POST', `/api/uploads/${uploadId}/reprocess`);
+    } catch (err) {
+      finish(key, { kind: 'failed', message: err instanceof ApiError ? err.message : 'Kinloop could not be reached. Try again in a moment.' });
+      return;
+    }
+    finish(key, await settleUpload({ name: job.file.name, uploadId, status: 'queued' }));
+  }
+
   function clearFinished() {
     const done = entries.filter((e) => e.stage.stage === 'done').map((e) => e.key);
     for (const key of done) jobs.current.delete(key);
     setEntries((list) => list.filter((e) => !done.includes(e.key)));
   }
 
-  const counts = { accepted: 0, duplicate: 0, refused: 0, failed: 0, open: 0 };
+  const counts = { accepted: 0, duplicate: 0, refused: 0, unread: 0, failed: 0, open: 0 };
   for (const e of entries) {
     if (e.stage.stage === 'done') counts[e.stage.outcome.kind]++;
     else counts.open++;
@@ -140,6 +158,7 @@ function Uploader({ clients, profiles, initialClientId }: { clients: ClientChoic
     counts.accepted && `${counts.accepted} accepted`,
     counts.duplicate && `${counts.duplicate} already in Kinloop`,
     counts.refused && `${counts.refused} refused`,
+    counts.unread && `${counts.unread} could not be read`,
     counts.failed && `${counts.failed} not uploaded`,
     counts.open && `${counts.open} in progress`,
   ].filter(Boolean);
@@ -209,11 +228,13 @@ function Uploader({ clients, profiles, initialClientId }: { clients: ClientChoic
           <p className="text-ink-soft">{tally.join(' · ')}</p>
           <ul className="space-y-3">
             {entries.map((entry) => (
-              <UploadItem key={entry.key} entry={entry} onRetry={retry} />
+              <UploadItem key={entry.key} entry={entry} onRetry={retry} onTryAgain={(k, id) => void tryAgain(k, id)} />
             ))}
           </ul>
         </section>
       )}
+
+      {client && <RecentUploads clientId={client.id} clientName={client.name} timeZone={client.timeZone} refresh={finished} />}
     </div>
   );
 }

@@ -43,6 +43,8 @@ export async function settleUpload(result: UploadFileResult): Promise<UploadOutc
   switch (final.status) {
     case 'accepted':
       return { kind: 'accepted', sessionId: final.sessionId!, session: await sessionOrNull(final.sessionId!) };
+    case 'failed':
+      return { kind: 'unread', uploadId: final.uploadId, error: final.error ?? { code: 'read_failed', message: 'Kinloop could not read this file.' } };
     case 'duplicate':
       return { kind: 'duplicate', sessionId: final.duplicateOf ?? null, session: final.duplicateOf ? await sessionOrNull(final.duplicateOf) : null };
     default:

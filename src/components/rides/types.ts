@@ -16,7 +16,7 @@ export interface RideError {
 export interface UploadFileResult {
   name: string;
   uploadId: string;
-  status: 'queued' | 'accepted' | 'duplicate' | 'rejected';
+  status: 'queued' | 'accepted' | 'duplicate' | 'rejected' | 'failed';
   sessionId?: string;
   duplicateOf?: string | null;
   error?: RideError;
@@ -27,6 +27,9 @@ export type UploadOutcome =
   | { kind: 'accepted'; sessionId: string; session: SessionData | null }
   | { kind: 'duplicate'; sessionId: string | null; session: SessionData | null }
   | { kind: 'refused'; error: RideError }
+  /** Stored, but Kinloop could not read it on any try: it can be tried again. */
+  | { kind: 'unread'; uploadId: string; error: RideError }
+  /** Not stored: the request did not get through. */
   | { kind: 'failed'; message: string };
 
 export type UploadStage =
@@ -34,3 +37,17 @@ export type UploadStage =
   | { stage: 'sending'; loaded: number; total: number }
   | { stage: 'reading' }
   | { stage: 'done'; outcome: UploadOutcome };
+
+/** One row of GET /api/uploads?clientId=…, newest first. */
+export interface UploadListItem {
+  id: string;
+  name: string;
+  byteSize: number;
+  status: UploadFileResult['status'];
+  sessionId: string | null;
+  duplicateOf: string | null;
+  error: RideError | null;
+  uploadedAt: string;
+  processedAt: string | null;
+  canTryAgain: boolean;
+}

@@ -139,7 +139,7 @@ export interface OutboxEmailRow {
   created_at: Date;
 }
 
-export type UploadStatus = 'queued' | 'accepted' | 'duplicate' | 'rejected';
+export type UploadStatus = 'queued' | 'accepted' | 'duplicate' | 'rejected' | 'failed';
 
 export interface UploadRow {
   id: string;

@@ -1,5 +1,6 @@
 import { ZodError } from 'zod';
 import { HttpError } from './errors';
+import { DATABASE_UNAVAILABLE, isDatabaseUnavailable, isStorageUnavailable, STORAGE_UNAVAILABLE } from './unavailable';
 
 const NO_STORE = { 'cache-control': 'no-store' };
 
@@ -21,6 +22,14 @@ export function errorResponse(err: unknown): Response {
       ? `${first.path ? `${first.path}: ` : ''}${first.message}`
       : 'The request was not valid.';
     return json({ error: { code: 'invalid_input', message, fields } }, 400);
+  }
+  if (isDatabaseUnavailable(err)) {
+    console.error('database unavailable:', (err as Error).message);
+    return json({ error: { code: 'database_unavailable', message: DATABASE_UNAVAILABLE } }, 503, { 'retry-after': '30' });
+  }
+  if (isStorageUnavailable(err)) {
+    console.error('file store unavailable:', (err as Error).message);
+    return json({ error: { code: 'storage_unavailable', message: STORAGE_UNAVAILABLE } }, 503, { 'retry-after': '30' });
   }
   console.error(err);
   return json(

@@ -1,18 +1,25 @@
-// Receiving ride files: a multipart request is streamed, file by file, straight
-// to object storage with its SHA-256 computed on the way; nothing is held in
-// memory beyond the storage client's part buffer. Either every file of the
-// request is stored or none is: on any failure the objects already written are
-// removed before the error is answered.
-import { DeleteObjectCommand } from '@aws-sdk/client-s3';
+// Receiving ride files: a multipart request is read chunk by chunk into
+// busboy, and each file streams straight to object storage with its SHA-256
+// computed on the way; nothing is held in memory beyond the storage client's
+// part buffer. Every stream's error is handled: a client that goes away, a
+// file over the limit or a store that fails ends the request with its own
+// answer, never the process. Either every file of the request is stored or
+// none is: on any failure the transfers in progress are aborted and the
+// objects already written are removed before the error is answered.
 import busboy from 'busboy';
 import { createHash, randomUUID } from 'node:crypto';
-import { PassThrough, Readable, Transform } from 'node:stream';
-import { config } from '../config';
+import { once, setMaxListeners } from 'node:events';
+import { PassThrough, Transform } from 'node:stream';
+import { pipeline } from 'node:stream/promises';
 import { HttpError, badRequest } from '../http/errors';
-import { putObjectStream, s3 } from '../storage/s3';
+import { discardRest } from '../http/request';
+import { deleteObjects, putObjectStream } from '../storage/s3';
+import { cleanFileName } from './file-name';
 
 export const MAX_FILE_BYTES = 25 * 1024 * 1024;
 export const MAX_FILES = 50;
+const MAX_FIELDS = 200;
+const MAX_FIELD_BYTES = 4096;
 
 export interface StoredFile {
   name: string;
@@ -32,55 +39,85 @@ const tooLarge = (name: string) =>
 export const storageUnavailable = () =>
   new HttpError(503, 'storage_unavailable', 'The file store is not reachable right now, so nothing was saved. Try the upload again in a few minutes.');
 
+/** The client went away mid-request: nobody reads the answer, but the request ends as a refusal. */
+export class UploadInterrupted extends HttpError {
+  constructor(received: number) {
+    super(400, 'upload_interrupted', `The upload stopped after ${received} bytes, before the whole request arrived. Nothing was saved; send the files again.`);
+  }
+}
+
 /**
- * Streams the request's files to storage under `keyPrefix`. `beforeFirstFile`
- * runs once, when the first file starts, with the fields read so far: the
- * caller checks there that it may store files for them (so `clientId` must
- * come before the files, as the upload page sends it).
+ * Streams the request's files to storage. `beforeFirstFile` runs once, when
+ * the first file starts, with the fields read so far and the request's
+ * declared length: the caller checks there that it may store files for them
+ * (so `clientId` must come before the files, as the upload page sends it) and
+ * returns the key prefix to store them under.
  */
 export async function receiveRideFiles(
   request: Request,
-  keyPrefix: (fields: Record<string, string[]>) => string,
-  beforeFirstFile: (fields: Record<string, string[]>) => Promise<void>,
+  beforeFirstFile: (fields: Record<string, string[]>, declaredBytes: number) => Promise<string>,
 ): Promise<ReceivedUpload> {
   const type = request.headers.get('content-type') ?? '';
   if (!type.toLowerCase().startsWith('multipart/form-data')) {
     throw new HttpError(415, 'unsupported_media_type', 'Send ride files as multipart/form-data with the field "files".');
   }
-  const declared = Number(request.headers.get('content-length') ?? 0);
-  if (declared > MAX_FILES * MAX_FILE_BYTES + 1024 * 1024) {
+  const declared = Number(request.headers.get('content-length') ?? 0) || 0;
+  if (declared > MAX_FILES * (MAX_FILE_BYTES + 64 * 1024)) {
+    if (request.body) discardRest(request.body.getReader());
     throw new HttpError(413, 'too_large', 'This upload is larger than Kinloop accepts in one request (50 files of at most 25 MB). Nothing was saved.');
   }
   if (!request.body) throw badRequest('The upload was empty: choose at least one ride file.');
 
+  let parser: busboy.Busboy;
+  try {
+    parser = busboy({
+      headers: Object.fromEntries(request.headers),
+      // File names are UTF-8 as browsers send them, not Latin-1.
+      defParamCharset: 'utf8',
+      // One byte over the limit is how busboy tells a file that is too large from one exactly at it.
+      limits: { fileSize: MAX_FILE_BYTES + 1, files: MAX_FILES, fields: MAX_FIELDS, fieldSize: MAX_FIELD_BYTES, parts: MAX_FILES + MAX_FIELDS },
+    });
+  } catch (err) {
+    throw badRequest(`The upload could not be read as multipart/form-data: ${(err as Error).message}`);
+  }
+
   const fields: Record<string, string[]> = {};
   const stored: (StoredFile & { index: number })[] = [];
-  let arrivals = 0;
-  const pending: Promise<void>[] = [];
+  const transfers: Promise<void>[] = [];
+  const abort = new AbortController();
+  // Each file's pipeline and transfer listen to the one signal.
+  setMaxListeners(4 * MAX_FILES + 10, abort.signal);
   let failure: unknown = null;
-  let checked: Promise<void> | null = null;
+  let signalFailure: () => void = () => undefined;
+  const failed = new Promise<void>((resolve) => (signalFailure = resolve));
   const fail = (err: unknown) => {
-    failure ??= err;
+    if (failure) return;
+    failure = err;
+    abort.abort();
+    signalFailure();
   };
+  let checked: Promise<string> | null = null;
+  let arrivals = 0;
 
-  const parser = busboy({
-    headers: Object.fromEntries(request.headers),
-    limits: { fileSize: MAX_FILE_BYTES, files: MAX_FILES, fields: 200, fieldSize: 4096, parts: MAX_FILES + 200 },
-  });
-
-  parser.on('field', (name, value) => {
+  parser.on('field', (name, value, info) => {
+    if (info.valueTruncated) fail(badRequest(`The field "${name.slice(0, 40)}" is longer than ${MAX_FIELD_BYTES} bytes.`));
     (fields[name] ??= []).push(value);
   });
   parser.on('filesLimit', () => fail(new HttpError(413, 'too_many_files', `Upload at most ${MAX_FILES} files at a time. Nothing from this upload was saved.`)));
+  parser.on('fieldsLimit', () => fail(badRequest(`The upload has more than ${MAX_FIELDS} fields.`)));
+  parser.on('partsLimit', () => fail(badRequest('The upload has more parts than a ride-file upload has.')));
+  parser.on('error', (err: Error) => fail(badRequest(`The upload could not be read as multipart/form-data: ${err.message}`)));
   parser.on('file', (fieldName, stream, info) => {
-    const name = (info.filename || 'ride.csv').slice(0, 255);
+    // Every file stream has a listener for its errors, whatever happens to it next.
+    stream.on('error', () => undefined);
+    const name = cleanFileName(info.filename);
     if (failure || fieldName !== 'files') {
-      if (fieldName !== 'files') fail(badRequest(`Unexpected file field "${fieldName}": send ride files in the field "files".`));
+      if (fieldName !== 'files') fail(badRequest(`Unexpected file field "${fieldName.slice(0, 40)}": send ride files in the field "files".`));
       stream.resume();
       return;
     }
     const index = arrivals++;
-    checked ??= beforeFirstFile(fields);
+    checked ??= beforeFirstFile(fields, declared);
     const hash = createHash('sha256');
     let size = 0;
     const meter = new Transform({
@@ -90,47 +127,48 @@ export async function receiveRideFiles(
         done(null, chunk);
       },
     });
-    let truncated = false;
-    stream.on('limit', () => {
-      truncated = true;
-      fail(tooLarge(name));
-    });
+    stream.on('limit', () => fail(tooLarge(name)));
     const body = new PassThrough();
-    stream.pipe(meter).pipe(body);
-    const file = checked.then(async () => {
-      const key = `${keyPrefix(fields)}/${randomUUID()}`;
+    // The bytes flow into `body` while the access check runs; the transfer to storage starts after it.
+    const flowing = pipeline(stream, meter, body, { signal: abort.signal });
+    flowing.catch(() => undefined);
+    const transfer = (async () => {
+      let prefix: string;
       try {
-        await putObjectStream(key, body, 'text/csv');
+        prefix = await checked!;
       } catch (err) {
-        // The bytes the storage client did not take must still be read, or the request stalls.
-        body.resume();
-        fail(err instanceof HttpError ? err : storageUnavailable());
+        fail(err);
+        return;
+      }
+      if (failure) return;
+      const key = `${prefix}/${randomUUID()}`;
+      try {
+        await Promise.all([putObjectStream(key, body, 'text/csv', abort.signal), flowing]);
+      } catch (err) {
+        if (!failure) fail(err instanceof HttpError ? err : storageUnavailable());
+        // An abort may come after the store took the last part: the object is removed with the others.
+        stored.push({ index, name, storageKey: key, sha256: '', byteSize: size });
         return;
       }
       stored.push({ index, name, storageKey: key, sha256: hash.digest('hex'), byteSize: size });
-      if (truncated) fail(tooLarge(name));
-    });
-    file.catch((err) => {
-      body.resume();
-      fail(err);
-    });
-    pending.push(file.catch(() => undefined));
+    })();
+    transfers.push(transfer);
   });
 
-  const done = new Promise<void>((resolve, reject) => {
-    parser.on('close', resolve);
-    parser.on('error', (err: Error) => reject(badRequest(`The upload could not be read as multipart/form-data: ${err.message}`)));
-  });
-  try {
-    Readable.fromWeb(request.body as import('node:stream/web').ReadableStream).pipe(parser);
-    await done;
-  } catch (err) {
-    fail(err);
+  const reader = request.body.getReader();
+  const received = await pump(reader, parser, failed, () => failure !== null);
+  if (received.error) fail(new UploadInterrupted(received.bytes));
+  if (failure) {
+    // Busboy is left unfinished: its file streams end with it.
+    parser.destroy();
+    // Refused before the body ended: the answer goes out now, and the rest is dropped unread.
+    if (!received.error && !received.complete) discardRest(reader);
   }
-  await Promise.all(pending);
+  await Promise.all(transfers);
   if (!failure && stored.length === 0) failure = badRequest('The upload had no ride file: choose at least one file in the field "files".');
   if (failure) {
-    await removeObjects(stored.map((f) => f.storageKey));
+    await deleteObjects(stored.map((f) => f.storageKey));
+    if (failure instanceof UploadInterrupted) console.warn(`upload interrupted after ${received.bytes} bytes; ${stored.length} partly stored file(s) removed`);
     throw failure;
   }
   // Storage may finish files out of order; per-file fields follow the order they were sent in.
@@ -138,8 +176,35 @@ export async function receiveRideFiles(
   return { fields, files: stored.map(({ index: _, ...f }) => f) };
 }
 
-export async function removeObjects(keys: string[]): Promise<void> {
-  await Promise.all(
-    keys.map((Key) => s3().send(new DeleteObjectCommand({ Bucket: config().s3.bucket, Key })).catch(() => undefined)),
-  );
+/**
+ * Feeds the request body to busboy, chunk by chunk, waiting for busboy to take
+ * each one. Stops at once when `stopped()` turns true (a refusal; the rest of
+ * the body is never read) and returns, rather than throws, when the client
+ * goes away.
+ */
+async function pump(
+  reader: ReadableStreamDefaultReader<Uint8Array>,
+  parser: busboy.Busboy,
+  failed: Promise<void>,
+  stopped: () => boolean,
+): Promise<{ bytes: number; complete: boolean; error: unknown }> {
+  let bytes = 0;
+  let complete = false;
+  try {
+    for (;;) {
+      if (stopped()) return { bytes, complete, error: null };
+      const next = await Promise.race([reader.read(), failed.then(() => null)]);
+      if (next === null) return { bytes, complete, error: null };
+      if (next.done) break;
+      bytes += next.value.byteLength;
+      if (!parser.write(next.value)) await Promise.race([once(parser, 'drain'), failed]);
+    }
+    complete = true;
+    parser.end();
+    await Promise.race([once(parser, 'close'), failed]);
+    return { bytes, complete, error: null };
+  } catch (err) {
+    // Busboy's own errors are reported through its 'error' listener; anything else here is the request stream failing.
+    return { bytes, complete, error: stopped() ? null : err };
+  }
 }

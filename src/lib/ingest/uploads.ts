@@ -1,9 +1,12 @@
+import type { Knex } from 'knex';
 import { z } from 'zod';
 import { accessClient, accessClientRecord, canManageClient } from '../auth/access';
 import { auditAs, type RequestContext } from '../auth/context';
+import { config } from '../config';
 import type { UploadRow } from '../db/tables';
-import { badRequest, forbidden } from '../http/errors';
-import { getObjectStream } from '../storage/s3';
+import { badRequest, forbidden, HttpError } from '../http/errors';
+import { deleteObjects, getObjectStream } from '../storage/s3';
+import { cleanFileName } from './file-name';
 import { receiveRideFiles } from './receive';
 import { enqueueParse, registerUploads } from './register';
 
@@ -14,7 +17,7 @@ export function uploadView(row: UploadRow) {
   return {
     id: row.id,
     clientId: row.client_id,
-    name: row.original_name,
+    name: cleanFileName(row.original_name),
     byteSize: Number(row.byte_size),
     sha256: row.sha256,
     status: row.status,
@@ -31,7 +34,7 @@ export function uploadView(row: UploadRow) {
 /** The per-file answer of POST /api/uploads. */
 function fileResult(row: UploadRow) {
   return {
-    name: row.original_name,
+    name: cleanFileName(row.original_name),
     uploadId: row.id,
     status: row.status,
     ...(row.ride_id ? { sessionId: row.ride_id } : {}),
@@ -46,46 +49,99 @@ function one(fields: Record<string, string[]>, name: string): string | undefined
   return v?.[0];
 }
 
+/** The form fields an upload may carry besides its files, checked before any byte is stored and again at the end. */
+interface UploadFields {
+  clientId: string;
+  importProfileId: string | null;
+  fallback: Date[];
+}
+
+function readFields(fields: Record<string, string[]>): UploadFields {
+  const clientId = one(fields, 'clientId');
+  if (!clientId || !uuid.safeParse(clientId).success) throw badRequest('Say which client the files are for: send the field "clientId" before the files.');
+  const fallback = (fields.fallbackStartedAt ?? []).map((v, i) => {
+    if (!instant.safeParse(v).success) throw badRequest(`fallbackStartedAt value ${i + 1} ("${v.slice(0, 40)}") is not an ISO 8601 date-time such as 2026-10-05T09:30:00Z.`);
+    return new Date(v);
+  });
+  const importProfileId = one(fields, 'importProfileId') || null;
+  if (importProfileId && !uuid.safeParse(importProfileId).success) throw badRequest(unknownProfile);
+  return { clientId, importProfileId, fallback };
+}
+
+const unknownProfile = 'That import profile does not exist for this client’s clinic. Choose another or leave it on automatic detection.';
+
+/** Bytes of ride files a clinic stores (an object shared by copies of the same file counts once). */
+async function storedBytes(knex: Knex, clinicId: string): Promise<number> {
+  const { rows } = await knex.raw<{ rows: { bytes: string | null }[] }>(
+    'SELECT sum(byte_size) AS bytes FROM (SELECT DISTINCT ON (storage_key) byte_size FROM uploads WHERE clinic_id = ?) s',
+    [clinicId],
+  );
+  return Number(rows[0]?.bytes ?? 0);
+}
+
+const size = (bytes: number) => (bytes >= 1024 ** 3 ? `${(bytes / 1024 ** 3).toFixed(1)} GB` : `${(bytes / 1024 ** 2).toFixed(1)} MB`);
+
+function quotaExceeded(used: number, quota: number): HttpError {
+  return new HttpError(
+    507,
+    'storage_quota_exceeded',
+    `The clinic’s storage for ride files is full (${size(used)} of ${size(quota)} used), so nothing from this upload was saved. Ask the clinic administrator; the limit is set by whoever runs Kinloop for the clinic.`,
+  );
+}
+
 /**
  * Streams the files of a multipart request to storage for the client named in
  * the `clientId` field, records them, and waits a little for the worker so
- * that most answers are final rather than `queued`.
+ * that most answers are final rather than `queued`. Every field that came
+ * before the files is checked before the first byte is stored; a refusal after
+ * that deletes what was stored.
  */
 export async function uploadRideFiles(ctx: RequestContext, request: Request, waitMs: number) {
   let clinicId = '';
   let clientId = '';
-  const received = await receiveRideFiles(
-    request,
-    () => `rides/${clinicId}/${clientId}`,
-    async (fields) => {
-      const id = one(fields, 'clientId');
-      if (!id || !uuid.safeParse(id).success) throw badRequest('Say which client the files are for: send the field "clientId" before the files.');
-      const client = await accessClient(ctx, id, 'contribute', 'upload.create');
-      clinicId = client.clinic_id;
-      clientId = client.id;
-    },
-  );
-  const fallback = (received.fields.fallbackStartedAt ?? []).map((v, i) => {
-    if (!instant.safeParse(v).success) throw badRequest(`fallbackStartedAt value ${i + 1} ("${v.slice(0, 40)}") is not an ISO 8601 date-time such as 2026-10-05T09:30:00Z.`);
-    return new Date(v);
+  let used = 0;
+  const quota = config().clinicStorageQuotaBytes;
+  const received = await receiveRideFiles(request, async (fields, declaredBytes) => {
+    const early = readFields(fields);
+    const client = await accessClient(ctx, early.clientId, 'contribute', 'upload.create');
+    clinicId = client.clinic_id;
+    clientId = client.id;
+    if (early.importProfileId) await checkProfile(ctx, early.importProfileId, clinicId);
+    used = await storedBytes(ctx.knex, clinicId);
+    if (used + declaredBytes > quota) throw quotaExceeded(used, quota);
+    return `rides/${clinicId}/${clientId}`;
   });
-  if (fallback.length > 1 && fallback.length !== received.files.length) {
-    throw badRequest(`Send one fallbackStartedAt for all files or one per file; got ${fallback.length} for ${received.files.length} files.`);
+  const keys = received.files.map((f) => f.storageKey);
+  let rows: UploadRow[];
+  try {
+    const { fallback, importProfileId } = readFields(received.fields);
+    if (fallback.length > 1 && fallback.length !== received.files.length) {
+      throw badRequest(`Send one fallbackStartedAt for all files or one per file; got ${fallback.length} for ${received.files.length} files.`);
+    }
+    if (importProfileId) await checkProfile(ctx, importProfileId, clinicId);
+    const added = received.files.reduce((sum, f) => sum + f.byteSize, 0);
+    if (used + added > quota) throw quotaExceeded(used, quota);
+    rows = await registerUploads(ctx.knex, {
+      clientId,
+      clinicId,
+      userId: ctx.viewer.userId,
+      importProfileId,
+      files: received.files.map((f, i) => ({ ...f, fallbackStartedAt: fallback.length === 1 ? fallback[0] : (fallback[i] ?? null) })),
+    });
+  } catch (err) {
+    // A refusal after the files arrived leaves no object behind: no row was made.
+    await deleteObjects(keys);
+    throw err;
   }
-  const profileId = one(received.fields, 'importProfileId') || null;
-  if (profileId) {
-    const ok = uuid.safeParse(profileId).success && (await ctx.knex('import_profiles').where({ id: profileId, clinic_id: clinicId }).whereNull('archived_at').first('id'));
-    if (!ok) throw badRequest('That import profile does not exist for this client’s clinic. Choose another or leave it on automatic detection.');
-  }
-  const rows = await registerUploads(ctx.knex, {
-    clientId,
-    clinicId,
-    userId: ctx.viewer.userId,
-    importProfileId: profileId,
-    files: received.files.map((f, i) => ({ ...f, fallbackStartedAt: fallback.length === 1 ? fallback[0] : (fallback[i] ?? null) })),
-  });
+  // Bytes the client had sent before share the first copy's object: the one just stored goes.
+  await deleteObjects(keys.filter((k) => !rows.some((r) => r.storage_key === k)));
   const settled = await waitForOutcome(ctx, rows, waitMs);
   return { files: settled.map(fileResult) };
+}
+
+async function checkProfile(ctx: RequestContext, profileId: string, clinicId: string): Promise<void> {
+  const ok = await ctx.knex('import_profiles').where({ id: profileId, clinic_id: clinicId }).whereNull('archived_at').first('id');
+  if (!ok) throw badRequest(unknownProfile);
 }
 
 async function waitForOutcome(ctx: RequestContext, rows: UploadRow[], waitMs: number): Promise<UploadRow[]> {
@@ -108,7 +164,9 @@ async function uploadFor(ctx: RequestContext, id: string, need: 'read' | 'manage
 export async function listUploads(ctx: RequestContext, clientId: string, limit = 100) {
   const client = await accessClient(ctx, clientId, 'read', 'uploads.list');
   const rows = await ctx.knex<UploadRow>('uploads').where({ client_id: client.id }).orderBy('uploaded_at', 'desc').limit(limit);
-  return rows.map(uploadView);
+  const staff = canManageClient(ctx.viewer, client);
+  // The same rule as reprocessUpload: the clinic, or the uploader of a file whose reading failed.
+  return rows.map((row) => ({ ...uploadView(row), canTryAgain: row.status === 'failed' && (staff || row.uploaded_by === ctx.viewer.userId) }));
 }
 
 export async function readUpload(ctx: RequestContext, id: string) {
@@ -124,14 +182,33 @@ export async function rawUpload(ctx: RequestContext, id: string) {
   return { row, body, length };
 }
 
-/** Queues a stored file for parsing again; its session is replaced, never duplicated. */
+/**
+ * Queues a stored file for reading again; its session is replaced, never
+ * duplicated. The clinic's staff may do it for any file (after an import
+ * profile changed); the person who uploaded a file may try again one that failed.
+ */
 export async function reprocessUpload(ctx: RequestContext, id: string) {
-  const row = await uploadFor(ctx, id, 'manage', 'upload.reprocess');
-  if (row.duplicate_of_upload_id) {
-    throw badRequest('This upload is a copy of an earlier file with the same bytes; reprocess that one instead.', { originalUploadId: row.duplicate_of_upload_id });
+  const row = await uploadFor(ctx, id, 'read', 'upload.reprocess');
+  const client = await ctx.knex('clients').where({ id: row.client_id }).first('clinic_id');
+  const staff = canManageClient(ctx.viewer, client);
+  if (!staff && !(row.uploaded_by === ctx.viewer.userId && row.status === 'failed')) {
+    throw forbidden('Only the client’s clinic can have a file read again; the person who uploaded a file can try again when reading it failed.');
   }
-  await ctx.knex('uploads').where({ id }).update({ status: 'queued', enqueued_at: ctx.knex.fn.now(), error: null });
-  await auditAs(ctx, { action: 'upload.reprocess_queued', clientId: row.client_id, recordType: 'upload', recordId: id });
-  await enqueueParse([id]);
+  if (row.status === 'queued') return uploadView(row);
+  let target = row;
+  if (row.duplicate_of_upload_id) {
+    const original = await ctx.knex<UploadRow>('uploads').where({ id: row.duplicate_of_upload_id }).first();
+    // A copy that failed with its first copy is tried again through that one; any other copy has nothing of its own to read.
+    if (!original || row.status !== 'failed' || original.status !== 'failed') {
+      throw badRequest('This upload is a copy of an earlier file with the same bytes; reprocess that one instead.', { originalUploadId: row.duplicate_of_upload_id });
+    }
+    target = original;
+  }
+  await ctx.knex.transaction(async (trx) => {
+    await trx('uploads').where({ id: target.id }).update({ status: 'queued', enqueued_at: trx.fn.now(), error: null, attempts: 0 });
+    if (target.id !== row.id) await trx('uploads').where({ id: row.id }).update({ status: 'queued', enqueued_at: trx.fn.now(), error: null });
+  });
+  await auditAs(ctx, { action: 'upload.reprocess_queued', clientId: row.client_id, recordType: 'upload', recordId: target.id });
+  await enqueueParse([target.id]);
   return uploadView({ ...row, status: 'queued', error: null });
 }

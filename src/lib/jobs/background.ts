@@ -1,17 +1,20 @@
+import { config } from '../config';
 import { db } from '../db/knex';
+import { failureMessage, markUploadFailed } from '../ingest/failures';
 import { processUpload } from '../ingest/process';
-import { resendStaleUploads } from '../ingest/sweep';
+import { resendStaleUploads, sweepOrphanObjects } from '../ingest/sweep';
 import { deliverDueEmails } from '../mail/outbox';
 import { registerFlagJobs } from '../supervision/flag-jobs';
 import { sendScheduledEmails } from '../notifications/scheduled';
+import { ParsePool } from './parse-pool';
 import { QUEUES, queue, workQueue } from './queue';
 
 const OUTBOX_POLL_MS = 2000;
-// Crash-recovery tests hold a job here to kill the worker while it is active.
-const PARSE_HOLD_MS = Number(process.env.KINLOOP_PARSE_HOLD_MS ?? 0);
 const SWEEP_MS = 60_000;
+const ORPHAN_SWEEP_MS = 60 * 60_000;
 
 let started: Promise<void> | null = null;
+let pool: ParsePool | null = null;
 
 function every(ms: number, name: string, task: () => Promise<unknown>): void {
   const loop = async () => {
@@ -26,15 +29,23 @@ function every(ms: number, name: string, task: () => Promise<unknown>): void {
 }
 
 /**
- * Starts this process's background work: the job queue's workers, the outbox
- * delivery loop and the sweeper for uploads whose job message was lost.
- * Runs inside the app server by default, or alone through `npm run worker`.
+ * Starts the worker's background work (`npm run worker`, which `npm start`
+ * runs beside the app): the job queue's workers, parsing in parse processes
+ * of its own, the outbox delivery loop and the sweepers.
  */
 export function startBackgroundWork(): Promise<void> {
   started ??= (async () => {
-    await workQueue<{ uploadId: string }>(QUEUES.parseRide, async ({ uploadId }) => {
-      if (PARSE_HOLD_MS) await new Promise((r) => setTimeout(r, PARSE_HOLD_MS));
-      await processUpload(db(), uploadId);
+    pool = new ParsePool(config().parseProcesses);
+    const parse = pool;
+    await workQueue<{ uploadId: string }>(QUEUES.parseRide, async ({ uploadId }, attempt) => {
+      try {
+        await processUpload(db(), uploadId, parse.read);
+      } catch (err) {
+        console.error(`reading upload ${uploadId} failed (attempt ${attempt.retryCount + 1} of ${attempt.retryLimit + 1}):`, (err as Error).message);
+        // The last try settles the upload as failed, so it never stays queued for ever.
+        if (!attempt.last) throw err;
+        await markUploadFailed(db(), uploadId, `${failureMessage(err)} Kinloop tried ${attempt.retryLimit + 1} times.`);
+      }
     });
     await registerFlagJobs();
     await (await queue()).schedule(QUEUES.scheduledMail, '0 * * * *');
@@ -43,7 +54,15 @@ export function startBackgroundWork(): Promise<void> {
     });
     every(OUTBOX_POLL_MS, 'outbox delivery', () => deliverDueEmails(db()));
     every(SWEEP_MS, 'upload sweep', () => resendStaleUploads(db()));
+    every(ORPHAN_SWEEP_MS, 'orphan object sweep', async () => {
+      const deleted = await sweepOrphanObjects(db());
+      if (deleted.length) console.log(`orphan object sweep deleted ${deleted.length} object(s) no upload names`);
+    });
   })();
   started.catch((err) => console.error('background work did not start:', err));
   return started;
+}
+
+export function stopBackgroundWork(): void {
+  pool?.stop();
 }

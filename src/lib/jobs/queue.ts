@@ -25,16 +25,21 @@ export function queue(): Promise<PgBoss> {
   boss ??= (async () => {
     const instance = new PgBoss({
       connectionString: config().databaseUrl,
-      schema: process.env.KINLOOP_QUEUE_SCHEMA ?? 'pgboss',
+      schema: config().queueSchema,
       max: 4,
       // Active jobs of a worker that died are found and retried this often.
-      maintenanceIntervalSeconds: Number(process.env.KINLOOP_QUEUE_MAINTENANCE_S ?? 30),
+      maintenanceIntervalSeconds: config().queueMaintenanceS,
     });
     instance.on('error', (err) => console.error('job queue:', err.message));
     await instance.start();
     for (const [name, options] of Object.entries(QUEUE_OPTIONS)) await ensureQueue(instance, name, options);
     return instance;
   })();
+  // A queue that could not start (the database was away) is tried again on next use.
+  const starting = boss;
+  starting.catch(() => {
+    if (boss === starting) boss = null;
+  });
   return boss;
 }
 
@@ -64,17 +69,25 @@ export async function stopQueue(): Promise<void> {
 
 const localWorkers = new Map<string, string[]>();
 
+/** Where a job is in its retries: the last attempt may settle for good what it could not do. */
+export interface Attempt {
+  retryCount: number;
+  retryLimit: number;
+  /** No retry follows this attempt. */
+  last: boolean;
+}
+
 /**
  * Works a queue in this process, one job at a time. pg-boss waits a polling
  * interval after every fetch; waking the worker after each job (and when this
  * process sends one) keeps a batch of files flowing without that pause.
  */
-export async function workQueue<T extends object>(name: string, handler: (data: T) => Promise<void>): Promise<void> {
+export async function workQueue<T extends object>(name: string, handler: (data: T, attempt: Attempt) => Promise<void>): Promise<void> {
   const boss = await queue();
   let id = '';
-  id = await boss.work<T>(name, { batchSize: 1, pollingIntervalSeconds: 1 }, async ([job]) => {
+  id = await boss.work<T>(name, { batchSize: 1, pollingIntervalSeconds: 1, includeMetadata: true }, async ([job]) => {
     try {
-      await handler(job.data);
+      await handler(job.data, { retryCount: job.retryCount, retryLimit: job.retryLimit, last: job.retryCount >= job.retryLimit });
     } finally {
       boss.notifyWorker(id);
     }

@@ -1,6 +1,7 @@
-// Cells → numbers, one column at a time into Float64Arrays: a single pass per
-// column, no per-row objects, Number() for every numeric cell; the clock and
-// ISO readers only run for time columns that hold such strings.
+// Cells → numbers, one row at a time into Float64Arrays: the rows are never
+// held as strings, so memory is a few numbers per row whatever the file's
+// width. Number() for every numeric cell; the clock and ISO readers only run
+// for time columns that hold such strings.
 
 import { isBlank, parseClock, parseIsoMs, readNumber, type TimeFormat, detectTimeFormat } from './time';
 import { isIdentity, type Unit } from './units';
@@ -12,7 +13,7 @@ export const MAX_ABS_NUMERIC_TIME = 1e15;
 // A time of day that falls by more than half a day has passed midnight.
 const ROLLOVER_DROP_S = SECONDS_PER_DAY / 2;
 
-function rowIsBlank(row: string[]): boolean {
+export function rowIsBlank(row: string[]): boolean {
   for (let i = 0; i < row.length; i++) if (!isBlank(row[i])) return false;
   return true;
 }
@@ -25,67 +26,75 @@ export interface TimeColumn {
   unreadable: RowTally;
   /** Data row at which a time of day passed midnight, or −1. */
   rollover: number;
+  /** The cell of the first row with the earliest time (the first sample), for its UTC offset. */
+  firstCell: string;
 }
 
 /**
- * Reads the time column. Its format comes from `format` (an import profile's
- * setting) or else from the first readable cell; cells that do not fit that
- * format are unreadable. Clock times that fall by more than 12 h are taken
- * to have passed midnight. Rows with every cell blank are skipped silently.
+ * Reads the time column row by row. Its format comes from `format` (an import
+ * profile's setting) or else from the first readable cell; cells that do not
+ * fit that format are unreadable. Clock times that fall by more than 12 h are
+ * taken to have passed midnight. Rows with every cell blank are skipped silently.
  */
-export function readTimeColumn(rows: string[][], index: number, format: TimeFormat | null, millisecondsUnit: boolean): TimeColumn {
-  const n = rows.length;
-  const raw = new Float64Array(n);
-  const unreadable = new RowTally();
-  let fmt = format;
-  let r = 0;
-  const miss = (row: number) => {
-    raw[row] = NaN;
-    if (!rowIsBlank(rows[row])) unreadable.add(row);
-  };
-  if (fmt === null) {
-    for (; r < n; r++) {
-      const cell = rows[r][index];
-      fmt = cell === undefined ? null : detectTimeFormat(cell, millisecondsUnit);
-      if (fmt !== null) break;
-      miss(r);
-    }
+export class TimeReader {
+  private raw: Float64Array;
+  private readonly unreadable = new RowTally();
+  private rollover = -1;
+  private offset = 0;
+  private previous = NaN;
+  private earliest = Infinity;
+  private firstCell = '';
+
+  constructor(
+    capacity: number,
+    private format: TimeFormat | null,
+    private readonly millisecondsUnit: boolean,
+  ) {
+    this.raw = new Float64Array(capacity);
   }
-  let rollover = -1;
-  if (fmt === 'seconds' || fmt === 'milliseconds') {
-    for (; r < n; r++) {
-      const v = readNumber(rows[r][index]);
-      if (v === v && Math.abs(v) <= MAX_ABS_NUMERIC_TIME) raw[r] = v;
-      else miss(r);
-    }
-  } else if (fmt === 'clock') {
-    let offset = 0;
-    let previous = NaN;
-    for (; r < n; r++) {
-      const cell = rows[r][index];
-      let v = cell === undefined ? NaN : parseClock(cell);
-      if (v !== v) {
-        miss(r);
-        continue;
+
+  /** Reads row `r`'s time cell; returns the raw time, NaN when the row has none. */
+  add(r: number, row: string[], index: number): number {
+    const cell = row[index];
+    if (this.format === null && cell !== undefined) this.format = detectTimeFormat(cell, this.millisecondsUnit);
+    let v = NaN;
+    if (cell !== undefined) {
+      switch (this.format) {
+        case 'seconds':
+        case 'milliseconds':
+          v = readNumber(cell);
+          if (Math.abs(v) > MAX_ABS_NUMERIC_TIME) v = NaN;
+          break;
+        case 'clock':
+          v = parseClock(cell);
+          if (v === v) {
+            v += this.offset;
+            if (v < this.previous - ROLLOVER_DROP_S) {
+              this.offset += SECONDS_PER_DAY;
+              v += SECONDS_PER_DAY;
+              if (this.rollover < 0) this.rollover = r;
+            }
+            this.previous = v;
+          }
+          break;
+        case 'iso':
+          v = parseIsoMs(cell);
+          break;
       }
-      v += offset;
-      if (v < previous - ROLLOVER_DROP_S) {
-        offset += SECONDS_PER_DAY;
-        v += SECONDS_PER_DAY;
-        if (rollover < 0) rollover = r;
-      }
-      previous = v;
-      raw[r] = v;
     }
-  } else if (fmt === 'iso') {
-    for (; r < n; r++) {
-      const cell = rows[r][index];
-      const v = cell === undefined ? NaN : parseIsoMs(cell);
-      if (v === v) raw[r] = v;
-      else miss(r);
+    this.raw[r] = v;
+    if (v !== v) {
+      if (!rowIsBlank(row)) this.unreadable.add(r);
+    } else if (v < this.earliest) {
+      this.earliest = v;
+      this.firstCell = cell!;
     }
+    return v;
   }
-  return { raw, format: fmt, unreadable, rollover };
+
+  finish(rows: number): TimeColumn {
+    return { raw: this.raw.subarray(0, rows), format: this.format, unreadable: this.unreadable, rollover: this.rollover, firstCell: this.firstCell };
+  }
 }
 
 export interface NumericColumn {
@@ -95,33 +104,41 @@ export interface NumericColumn {
   nonNumeric: RowTally;
 }
 
-export function readNumericColumn(rows: string[][], index: number, unit: Unit, time: Float64Array): NumericColumn {
-  const n = rows.length;
-  const values = new Float64Array(n);
-  const nonNumeric = new RowTally();
-  const plain = isIdentity(unit);
-  const { multiply, divide } = unit;
-  for (let r = 0; r < n; r++) {
-    if (time[r] !== time[r]) {
-      values[r] = NaN;
-      continue;
-    }
-    const cell = rows[r][index];
-    if (cell === undefined) {
-      values[r] = NaN;
-      continue;
+export class NumericReader {
+  private readonly values: Float64Array;
+  private readonly nonNumeric = new RowTally();
+  private readonly plain: boolean;
+
+  constructor(
+    capacity: number,
+    readonly index: number,
+    private readonly unit: Unit,
+  ) {
+    this.values = new Float64Array(capacity);
+    this.plain = isIdentity(unit);
+  }
+
+  /** Reads row `r`'s cell; `timed` is false for a row without a readable time, whose values do not count. */
+  add(r: number, row: string[], timed: boolean): void {
+    const cell = row[this.index];
+    if (!timed || cell === undefined) {
+      this.values[r] = NaN;
+      return;
     }
     const v = +cell;
     if (v - v !== 0) {
-      if (!isBlank(cell)) nonNumeric.add(r);
-      values[r] = NaN;
+      if (!isBlank(cell)) this.nonNumeric.add(r);
+      this.values[r] = NaN;
     } else if (v === 0 && isBlank(cell)) {
-      values[r] = NaN;
+      this.values[r] = NaN;
     } else {
-      const c = plain ? v : (v * multiply) / divide;
-      if (c - c !== 0) nonNumeric.add(r);
-      values[r] = c - c === 0 ? c : NaN;
+      const c = this.plain ? v : (v * this.unit.multiply) / this.unit.divide;
+      if (c - c !== 0) this.nonNumeric.add(r);
+      this.values[r] = c - c === 0 ? c : NaN;
     }
   }
-  return { values, nonNumeric };
+
+  finish(rows: number): NumericColumn {
+    return { values: this.values.subarray(0, rows), nonNumeric: this.nonNumeric };
+  }
 }

@@ -14,7 +14,7 @@ export function lineBreakOf(text: string): '\n' | '\r' {
 // Without quotes, splitting at "\n" reads CRLF and mixed files alike (the CR
 // left on each row's last cell is cut off afterwards). With quotes the parser
 // must see the real line break so that "…"\r\n closes a field.
-function papaNewline(text: string, lineBreak: '\n' | '\r'): '\n' | '\r' | '\r\n' {
+export function papaNewline(text: string, lineBreak: '\n' | '\r'): '\n' | '\r' | '\r\n' {
   if (lineBreak === '\r' || !text.includes('"')) return lineBreak;
   const i = text.indexOf('\n');
   return i > 0 && text.charCodeAt(i - 1) === 13 ? '\r\n' : '\n';

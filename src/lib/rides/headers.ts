@@ -160,21 +160,44 @@ function withUnit(header: string, field: CanonicalField, unitText: string | null
 }
 
 // Profiles are stored settings edited by people: entries that are not well-formed are skipped.
+type ProfileColumn = { key: string; spec: { field: string; unit?: unknown } };
+const profileIndexes = new WeakMap<ImportProfile, Map<string, { order: number; entry: ProfileColumn }>>();
+
+/**
+ * The profile's columns by header key, built once per profile: matching a
+ * header is then two lookups, not a pass over every profile column.
+ */
+function profileIndex(profile: ImportProfile): Map<string, { order: number; entry: ProfileColumn }> {
+  let index = profileIndexes.get(profile);
+  if (index) return index;
+  index = new Map();
+  let order = 0;
+  for (const [key, spec] of Object.entries(profile.columns)) {
+    const k = headerKey(key);
+    if (k === '' || typeof spec?.field !== 'string' || index.has(k)) continue;
+    index.set(k, { order: order++, entry: { key: k, spec } });
+  }
+  profileIndexes.set(profile, index);
+  return index;
+}
+
 function fromProfile(header: string, profile: ImportProfile | undefined): ColumnReading | null {
   if (!profile?.columns || typeof profile.columns !== 'object') return null;
+  const index = profileIndex(profile);
   const full = headerKey(header);
   const { name, unitText } = splitBracketUnit(header);
   const bare = headerKey(name);
-  for (const [key, spec] of Object.entries(profile.columns)) {
-    const k = headerKey(key);
-    if (k === '' || (k !== full && k !== bare) || typeof spec?.field !== 'string') continue;
-    if (!FIELDS.has(spec.field)) {
-      return { header, field: null, unit: null, unitGiven: false, problem: `the import profile maps it to "${spec.field}", which is not a Kinloop field` };
-    }
-    const unit = typeof spec.unit === 'string' ? spec.unit : null;
-    return withUnit(header, spec.field, unit ?? (k === full ? null : unitText));
+  // The profile's first entry that matches either form of the header wins.
+  const a = index.get(full);
+  const b = index.get(bare);
+  const hit = a && b ? (a.order <= b.order ? a : b) : (a ?? b);
+  if (!hit) return null;
+  const { key: k, spec } = hit.entry;
+  if (!FIELDS.has(spec.field)) {
+    return { header, field: null, unit: null, unitGiven: false, problem: `the import profile maps it to "${spec.field}", which is not a Kinloop field` };
   }
-  return null;
+  const unit = typeof spec.unit === 'string' ? spec.unit : null;
+  return withUnit(header, spec.field as CanonicalField, unit ?? (k === full ? null : unitText));
 }
 
 // Longer cells are text, not column names; the limit also keeps the pattern matching below cheap.

@@ -4,12 +4,17 @@
 
 import { DELIMITERS, lineBreakOf, splitLine, type Delimiter } from './csv';
 import { isMeasurement, readHeaderRow, type ColumnReading } from './headers';
+import { cellsUpTo, MAX_COLUMNS, type LimitProblem } from './limits';
 import type { ImportProfile } from './types';
 
 /** Lines searched for the header row; a longer preamble is not a ride file. */
 export const HEADER_SEARCH_LINES = 1000;
-/** Longer lines are not taken for a header row (a real one with 100 columns has a few kB). */
-export const MAX_HEADER_LINE_LENGTH = 65536;
+/**
+ * Characters searched for the header row: a real preamble has a few hundred.
+ * Together with the column limit this bounds the header search to a few
+ * thousand header cells, whatever the file holds.
+ */
+export const HEADER_SEARCH_CHARS = 64 * 1024;
 
 export interface PreambleLine {
   line: number;
@@ -39,10 +44,17 @@ interface Candidate {
   measurements: number;
 }
 
-function readRow(line: string, profile: ImportProfile | undefined): Candidate | null {
+/** The best reading of a line as a header row, or null; `tooWide` when some delimiter split it into more than MAX_COLUMNS cells. */
+function readRow(line: string, profile: ImportProfile | undefined): { best: Candidate | null; tooWide: number } {
   let best: Candidate | null = null;
+  let tooWide = 0;
   for (const delimiter of DELIMITERS) {
     if (delimiter !== ',' && !line.includes(delimiter)) continue;
+    const cells = cellsUpTo(line, delimiter);
+    if (cells > MAX_COLUMNS) {
+      tooWide = cells;
+      continue;
+    }
     const readings = readHeaderRow(splitLine(line, delimiter), profile);
     const hasTime = readings.some((r) => r.field === 'time');
     const measurements = readings.filter((r) => isMeasurement(r.field)).length;
@@ -50,7 +62,7 @@ function readRow(line: string, profile: ImportProfile | undefined): Candidate | 
     const bestScore = best === null ? 0 : (best.hasTime ? 1 : 0) + best.measurements;
     if (score > bestScore) best = { delimiter, readings, hasTime, measurements };
   }
-  return best;
+  return { best, tooWide };
 }
 
 const recognised = (c: Candidate) => c.readings.filter((r) => r.field !== null).map((r) => r.header);
@@ -61,21 +73,25 @@ const recognised = (c: Candidate) => c.readings.filter((r) => r.field !== null).
  * but no time (`no_time_column`), else the first that names a time but no
  * measurement (`no_measurements`), else `no_header`.
  */
-export function findLayout(text: string, profile?: ImportProfile): { ok: true; layout: Layout } | { ok: false; problem: LayoutProblem } {
+export function findLayout(text: string, profile?: ImportProfile): { ok: true; layout: Layout } | { ok: false; problem: LayoutProblem | LimitProblem } {
   const lineBreak = lineBreakOf(text);
   const preamble: PreambleLine[] = [];
   let noTime: LayoutProblem | null = null;
   let noMeasurement: LayoutProblem | null = null;
+  let wide: LimitProblem | null = null;
   let start = 0;
-  let line = 1;
-  for (; line <= HEADER_SEARCH_LINES && start <= text.length; line++) {
+  let searched = 0;
+  for (let line = 1; line <= HEADER_SEARCH_LINES && start < HEADER_SEARCH_CHARS; line++) {
+    searched = line;
     let stop = text.indexOf(lineBreak, start);
     if (stop < 0) stop = text.length;
     let content = text.slice(start, stop);
     if (lineBreak === '\n' && content.endsWith('\r')) content = content.slice(0, -1);
     const next = stop + 1;
     if (content.trim() !== '') {
-      const c = content.length > MAX_HEADER_LINE_LENGTH ? null : readRow(content, profile);
+      const read = readRow(content, profile);
+      const c = read.best;
+      if (read.tooWide) wide ??= { code: 'too_many_columns', line, columns: read.tooWide };
       if (c !== null && c.hasTime && c.measurements > 0) {
         return {
           ok: true,
@@ -89,7 +105,7 @@ export function findLayout(text: string, profile?: ImportProfile): { ok: true; l
     if (stop >= text.length) break;
     start = next;
   }
-  return { ok: false, problem: noTime ?? noMeasurement ?? { code: 'no_header', searched: Math.min(line, HEADER_SEARCH_LINES) } };
+  return { ok: false, problem: noTime ?? noMeasurement ?? wide ?? { code: 'no_header', searched } };
 }
 
 /**

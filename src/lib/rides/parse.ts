@@ -1,18 +1,20 @@
 // parseRide: ride-file bytes → canonical series and summary, or a refusal.
 // One decode, one papaparse call over the data rows, one pass per column.
 
-import { readNumericColumn, readTimeColumn } from './columns';
-import { tokenise } from './csv';
+import type { TimeColumn } from './columns';
+import { lineBreakOf } from './csv';
 import { decodeBytes, looksLikeText } from './decode';
 import { median, PAUSE_S } from './deltas';
 import { describeField, quantityOf, type ColumnReading } from './headers';
 import { commasToPoints, findLayout, usesDecimalComma, type PreambleLine } from './layout';
+import { checkDataRows, longLine } from './limits';
 import { deviceOf, readPreamble, startOf } from './metadata';
 import { DEFAULT_METRES_PER_REV, summarise } from './metrics';
 import { orderRows, pick, type RowOrder } from './order';
 import { phasesFromColumn, phasesFromCurrent } from './phases';
 import { dropImplausible } from './plausibility';
 import { refusals } from './refusals';
+import { readRows, type RowData } from './rows';
 import { isoHasOffset, timeDivisor, toIsoUtc, wallTimeToEpochMs, type TimeFormat } from './time';
 import type { CanonicalField, ChannelName, ParsedRide, ParseOptions, Phase, RideRefusal, RideSeries } from './types';
 import type { Quantity, Unit } from './units';
@@ -38,19 +40,6 @@ const SERIES_KEYS: Partial<Record<CanonicalField, 'cadenceRpm' | 'powerW' | 'dis
 
 const positive = (v: number | undefined) => (typeof v === 'number' && Number.isFinite(v) && v > 0 ? v : undefined);
 
-/** File line of each data row: consecutive lines unless quoted cells hold line breaks. */
-function lineMapper(rows: string[][], firstLine: number, data: string, lineBreak: string): LineOf {
-  if (!data.includes('"')) return (row) => firstLine + row;
-  const lines = new Int32Array(rows.length);
-  let line = firstLine;
-  for (let r = 0; r < rows.length; r++) {
-    lines[r] = line;
-    line++;
-    for (const cell of rows[r]) for (let i = cell.indexOf(lineBreak); i >= 0; i = cell.indexOf(lineBreak, i + 1)) line++;
-  }
-  return (row) => lines[row];
-}
-
 interface Measured {
   field: CanonicalField;
   quantity: Quantity;
@@ -70,8 +59,7 @@ interface Timeline {
 }
 
 /** Time column → samples in time order with t in seconds from the first; null when no row has a time. */
-function readTimeline(rows: string[][], timeIndex: number, reading: ColumnReading, profileFormat: TimeFormat | null, lineOf: LineOf, warnings: string[]): Timeline | null {
-  const time = readTimeColumn(rows, timeIndex, profileFormat, reading.unit?.divide === 1000);
+function readTimeline(time: TimeColumn, reading: ColumnReading, profileFormat: TimeFormat | null, lineOf: LineOf, warnings: string[]): Timeline | null {
   if (time.unreadable.count > 0) {
     warnings.push(`${counted(time.unreadable.count, 'row without a readable time', 'rows without a readable time')} skipped ${linesOf(time.unreadable, lineOf)}`);
   }
@@ -112,14 +100,15 @@ function readTimeline(rows: string[][], timeIndex: number, reading: ColumnReadin
 }
 
 /** Numeric columns in sample order, implausible values dropped; warnings for non-numbers, then for drops. */
-function readMeasurements(rows: string[][], readings: ColumnReading[], timeline: Timeline, lineOf: LineOf, warnings: string[]): Measured[] {
+function readMeasurements(data: RowData, readings: ColumnReading[], measuredIndexes: number[], timeline: Timeline, lineOf: LineOf, warnings: string[]): Measured[] {
   const measured: Measured[] = [];
   const drops: string[] = [];
-  readings.forEach((r, index) => {
-    if (r.field === null || r.field === 'time' || r.field === 'phase') return;
-    const quantity = quantityOf(r.field) as Quantity;
-    const column = readNumericColumn(rows, index, r.unit as Unit, timeline.raw);
-    const label = describeField(r.field);
+  measuredIndexes.forEach((index, i) => {
+    const r = readings[index];
+    const field = r.field as CanonicalField;
+    const quantity = quantityOf(field) as Quantity;
+    const column = data.numeric[i];
+    const label = describeField(field);
     if (column.nonNumeric.count > 0) {
       warnings.push(
         `${counted(column.nonNumeric.count, `${label} value that is not a number`, `${label} values that are not numbers`)} ignored ${linesOf(column.nonNumeric, lineOf)}`,
@@ -127,7 +116,7 @@ function readMeasurements(rows: string[][], readings: ColumnReading[], timeline:
     }
     const values = pick(column.values, timeline.order);
     drops.push(...dropImplausible(values, quantity, label, timeline.order.keep, lineOf));
-    measured.push({ field: r.field, quantity, values });
+    measured.push({ field, quantity, values });
   });
   warnings.push(...drops);
   return measured;
@@ -148,6 +137,10 @@ export function parseRide(bytes: Uint8Array, options: ParseOptions = {}): Parsed
   if (!/\S/.test(text)) return refusals.empty();
   if (!looksLikeText(text)) return refusals.notText();
 
+  const lineBreak = lineBreakOf(text);
+  const long = longLine(text, lineBreak);
+  if (long !== null) return refusals.fromLimit(long);
+
   const found = findLayout(text, options.profile);
   if (!found.ok) return refusals.fromLayout(found.problem);
   const layout = found.layout;
@@ -158,31 +151,41 @@ export function parseRide(bytes: Uint8Array, options: ParseOptions = {}): Parsed
   }
 
   let data = text.slice(layout.dataOffset);
+  const checked = checkDataRows(data, delimiter, layout.lineBreak, headerLine + 1);
+  if (checked.problem !== null) return refusals.fromLimit(checked.problem);
   const decimalComma = usesDecimalComma(data, delimiter);
   if (decimalComma) data = commasToPoints(data);
-  const rows = tokenise(data, delimiter, layout.lineBreak);
-  const lineOf = lineMapper(rows, headerLine + 1, data, layout.lineBreak);
 
   const timeIndex = readings.findIndex((r) => r.field === 'time');
   const profileFormat = PROFILE_TIME_FORMATS.get(String(options.profile?.timeFormat)) ?? null;
-  const timeline = readTimeline(rows, timeIndex, readings[timeIndex], profileFormat, lineOf, warnings);
-  if (timeline === null) return refusals.noDataRows(headerLine, rows.some((row) => !(row.length === 1 && row[0].trim() === '')));
+  const measuredIndexes = readings.flatMap((r, i) => (r.field === null || r.field === 'time' || r.field === 'phase' ? [] : [i]));
+  const rows = readRows(data, delimiter, layout.lineBreak, headerLine + 1, checked.lines + 1, {
+    timeIndex,
+    timeFormat: profileFormat,
+    millisecondsUnit: readings[timeIndex].unit?.divide === 1000,
+    numeric: measuredIndexes.map((i) => ({ index: i, unit: readings[i].unit as Unit })),
+    phaseIndex: readings.findIndex((r) => r.field === 'phase'),
+  });
+  const { lineOf } = rows;
+
+  const timeline = readTimeline(rows.time, readings[timeIndex], profileFormat, lineOf, warnings);
+  if (timeline === null) return refusals.noDataRows(headerLine, rows.anyRow);
   const { keep } = timeline.order;
   const n = keep.length;
 
-  const measured = readMeasurements(rows, readings, timeline, lineOf, warnings);
+  const measured = readMeasurements(rows, readings, measuredIndexes, timeline, lineOf, warnings);
   if (!measured.some((m) => m.values.some((v) => v === v))) return refusals.noValues(headerLine);
 
   const channels: Partial<Record<ChannelName, Float64Array>> = {};
   for (const m of measured) if (m.quantity === 'current') channels[m.field as ChannelName] = m.values;
-  const series: RideSeries = { t: timeline.t, phase: phasesOf(rows, readings, keep, channels, lineOf, warnings), channels };
+  const series: RideSeries = { t: timeline.t, phase: phasesOf(rows.phaseCells, readings, keep, channels, lineOf, warnings), channels };
   for (const m of measured) {
     const key = SERIES_KEYS[m.field];
     if (key) series[key] = m.values;
   }
 
   const entries = readPreamble(layout.preamble, delimiter);
-  const startedAt = startedAtOf(entries, timeline.format, timeline.raw0, rows[keep[0]][timeIndex], options.timeZone, warnings);
+  const startedAt = startedAtOf(entries, timeline.format, timeline.raw0, rows.time.firstCell, options.timeZone, warnings);
   if (n === 1) warnings.push("The file has only one sample, so the ride's durations are 0 s.");
   const metresPerRev = metresPerRevOf(options, warnings);
 
@@ -208,7 +211,7 @@ export function parseRide(bytes: Uint8Array, options: ParseOptions = {}): Parsed
 }
 
 function phasesOf(
-  rows: string[][],
+  phaseCells: (string | undefined)[] | null,
   readings: ColumnReading[],
   keep: Int32Array,
   channels: Partial<Record<ChannelName, Float64Array>>,
@@ -217,9 +220,9 @@ function phasesOf(
 ): Phase[] {
   const n = keep.length;
   const phaseIndex = readings.findIndex((r) => r.field === 'phase');
-  if (phaseIndex >= 0) {
+  if (phaseCells !== null) {
     const cells = new Array<string | undefined>(n);
-    for (let k = 0; k < n; k++) cells[k] = rows[keep[k]][phaseIndex];
+    for (let k = 0; k < n; k++) cells[k] = phaseCells[keep[k]];
     const fromColumn = phasesFromColumn(cells, keep);
     if (fromColumn !== null) {
       const u = fromColumn.unknown;

@@ -2,6 +2,7 @@
 // wrong, where (the 1-based file line when there is one) and what to do.
 
 import type { LayoutProblem } from './layout';
+import { MAX_COLUMNS, MAX_LINE_LENGTH, MAX_ROWS, type LimitProblem } from './limits';
 import type { RefusalCode, RideRefusal } from './types';
 
 const TIME_WORDS = 'time, elapsed, t, seconds or timestamp';
@@ -36,8 +37,34 @@ export const refusals = {
       `The measurement columns of the header row on line ${headerLine} hold no usable values: every one is empty, not a number or outside physical limits. Check the export settings of the cycle.`,
       headerLine,
     ),
-  fromLayout: (p: LayoutProblem): RideRefusal => {
+  fromLimit: (p: LimitProblem): RideRefusal => {
     switch (p.code) {
+      case 'line_too_long':
+        return refuse(
+          'line_too_long',
+          `Line ${p.line} has ${p.length.toLocaleString('en')} characters; a ride file's lines have at most ${MAX_LINE_LENGTH.toLocaleString('en')}. Check that this is the CSV export of one ride, with one sample per line.`,
+          p.line,
+        );
+      case 'too_many_columns':
+        return refuse(
+          'too_many_columns',
+          `Line ${p.line} has more than ${MAX_COLUMNS} columns, more than a ride file has. Check that this is the CSV export of one ride.`,
+          p.line,
+        );
+      case 'too_many_rows':
+        return refuse(
+          'too_many_rows',
+          `The file has more than ${MAX_ROWS.toLocaleString('en')} lines after its header row (line ${p.line} is one too many), more than one ride holds even at 10 samples a second for 13 hours. Check that it is the export of a single ride.`,
+          p.line,
+        );
+    }
+  },
+  fromLayout: (p: LayoutProblem | LimitProblem): RideRefusal => {
+    switch (p.code) {
+      case 'line_too_long':
+      case 'too_many_columns':
+      case 'too_many_rows':
+        return refusals.fromLimit(p);
       case 'no_header':
         return refuse(
           'no_header',

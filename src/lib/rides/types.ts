@@ -71,7 +71,10 @@ export type RefusalCode =
   | 'no_time_column'
   | 'no_data_rows'
   | 'no_measurements'
-  | 'too_large';
+  | 'too_large'
+  | 'line_too_long'
+  | 'too_many_columns'
+  | 'too_many_rows';
 
 export interface RideRefusal {
   ok: false;

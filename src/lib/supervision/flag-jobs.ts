@@ -1,5 +1,7 @@
+import { config } from '../config';
 import { db } from '../db/knex';
 import { onRidesChanged } from '../ingest/ride-events';
+import { filesInFlight } from '../ingest/sweep';
 import { QUEUES, queue, sendJob, workQueue } from '../jobs/queue';
 import { evaluateClientFlags } from './flag-store';
 import { clientsWithNewDay } from './new-day';
@@ -8,9 +10,7 @@ import { clientsWithNewDay } from './new-day';
 // Files arrive in batches (a fortnight at once, in any order). Evaluating a
 // little after the last one, and never while the client still has files
 // waiting to be parsed, means a batch is judged once, as a whole.
-const DELAY_S = Number(process.env.KINLOOP_FLAG_DELAY_S ?? 10);
-
-export async function scheduleFlagEvaluation(clientId: string, delayS = DELAY_S): Promise<void> {
+export async function scheduleFlagEvaluation(clientId: string, delayS = config().flagDelayS): Promise<void> {
   await sendJob(QUEUES.evaluateFlags, { clientId }, { singletonKey: clientId, ...(delayS ? { startAfter: delayS } : {}) });
 }
 
@@ -18,8 +18,7 @@ export async function registerFlagJobs(): Promise<void> {
   onRidesChanged((_knex, clientId) => scheduleFlagEvaluation(clientId));
 
   await workQueue<{ clientId: string }>(QUEUES.evaluateFlags, async ({ clientId }) => {
-    const waiting = await db()('uploads').where({ client_id: clientId, status: 'queued' }).first('id');
-    if (waiting) return scheduleFlagEvaluation(clientId);
+    if (await filesInFlight(db(), clientId)) return scheduleFlagEvaluation(clientId);
     await evaluateClientFlags(db(), clientId);
   });
 

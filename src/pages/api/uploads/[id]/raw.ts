@@ -1,16 +1,16 @@
 import type { APIRoute } from 'astro';
 import { signedIn } from '../../../../lib/auth/context';
 import { handle } from '../../../../lib/http/respond';
+import { attachmentDisposition } from '../../../../lib/ingest/file-name';
 import { rawUpload } from '../../../../lib/ingest/uploads';
 
 export const GET: APIRoute = ({ params, locals }) =>
   handle(async () => {
     const { row, body, length } = await rawUpload(signedIn(locals), params.id!);
-    const filename = row.original_name.replace(/["\\\r\n]/g, '_');
     return new Response(body, {
       headers: {
         'content-type': 'application/octet-stream',
-        'content-disposition': `attachment; filename="${filename}"; filename*=UTF-8''${encodeURIComponent(row.original_name)}`,
+        'content-disposition': attachmentDisposition(row.original_name),
         ...(length !== undefined ? { 'content-length': String(length) } : {}),
         'x-content-sha256': row.sha256,
         'cache-control': 'no-store',
