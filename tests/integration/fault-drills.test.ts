@@ -166,7 +166,8 @@ describe('PostgreSQL restarted under a running app', () => {
     const pgBin = process.env.KINLOOP_PG_BIN!;
     stopPg = startPostgres(pgBin, drill);
     const env = appEnv(drill, { NODE_ENV: 'production', KINLOOP_TRUST_PROXY: '1' });
-    await startProcess(['--import', 'tsx', 'scripts/db.ts', 'migrate'], env, /migrations applied|up to date/);
+    // Migrations run as the owner role, the app as its own, as npm start does.
+    await startProcess(['--import', 'tsx', 'scripts/db.ts', 'migrate'], { ...env, DATABASE_OWNER_URL: drill.databaseOwnerUrl! }, /migrations applied|up to date/);
     const knex = knexFactory({ client: 'pg', connection: drill.databaseUrl, pool: { min: 0, max: 2 } });
     try {
       const email = `drill-${randomUUID().slice(0, 8)}@example.test`;
