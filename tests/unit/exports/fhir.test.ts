@@ -77,7 +77,7 @@ describe('FHIR R4 bundle', () => {
 
   it('defines every Kinloop code it uses in the CodeSystem it carries, and gives stable ids', () => {
     const b = build();
-    const system = b.entry!.map((e) => e.resource!).find((r) => r.resourceType === 'CodeSystem') as { url: string; concept: { code: string }[] };
+    const system = b.entry!.map((e) => e.resource!).find((r) => r.resourceType === 'CodeSystem') as unknown as { url: string; concept: { code: string }[] };
     const used = observations(b).flatMap((o) => [o.code, ...(o.component ?? []).map((c) => c.code), ...(o.valueCodeableConcept ? [o.valueCodeableConcept] : [])]).flatMap((c) => c.coding!).filter((c) => c.system === system.url);
     expect(used.length).toBeGreaterThan(5);
     for (const c of used) expect(system.concept.map((k) => k.code)).toContain(c.code);
