@@ -39,7 +39,8 @@ function ChartWithTable({ chart }: { chart: OverviewChart }) {
   const options = useMemo<ChartOptions<'bar'>>(() => {
     const base = baseOptions<'bar'>(chart.yTitle);
     const value = { ...base.scales!.y, ticks: { color: PALETTE.ink, precision: 0 } };
-    const category = { ...base.scales!.x, title: { display: true, text: chart.xTitle, color: PALETTE.ink } };
+    // A few categories are all labelled; 26 weeks skip some.
+    const category = { ...base.scales!.x, ticks: { ...base.scales!.x!.ticks, autoSkip: chart.bars.length > 12 }, title: { display: true, text: chart.xTitle, color: PALETTE.ink } };
     return {
       ...base,
       indexAxis: chart.horizontal ? 'y' : 'x',
@@ -58,7 +59,7 @@ function ChartWithTable({ chart }: { chart: OverviewChart }) {
       <div className="relative h-64">
         <Bar data={data} options={options} role="img" aria-label={`${chart.title}: bar chart; the table below gives the numbers and links to the clients.`} />
       </div>
-      <div className="max-h-80 overflow-auto rounded-lg border border-line" role="region" aria-label={`${chart.title}, table`} tabIndex={0}>
+      <div className={`${chart.bars.length > 8 ? 'max-h-80 overflow-auto' : ''} rounded-lg border border-line`} role="region" aria-label={`${chart.title}, table`} tabIndex={0}>
         <table className="w-full border-collapse text-left text-sm">
           <caption className="sr-only">{chart.title}</caption>
           <thead className="sticky top-0 bg-paper">
