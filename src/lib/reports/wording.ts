@@ -103,7 +103,7 @@ function energyWords(report: Report, locale: string) {
     acsm: e.acsm
       ? {
           value: `${number(e.acsm.vo2MlKgMin, 2, locale)} mL/kg/min, ${number(e.acsm.kcalPerMin, 2, locale)} kcal/min at the period's mean power of ${number(e.acsm.atPowerW, 1, locale)} W and ${number(e.acsm.bodyMassKg, 1, locale)} kg${e.acsm.totalKcal === null ? '' : `; ${number(e.acsm.totalKcal, 0, locale)} kcal over the period's active time`}`,
-          method: 'For comparison only: the ACSM leg-cycling equation is made for volitional cycling (pedalling by one’s own effort), not for FES cycling, and would give far less energy for the same power than the FES estimate.',
+          method: 'For comparison only: the ACSM leg-cycling equation is made for volitional cycling (pedalling by one’s own effort), not for FES cycling; it adds resting and unloaded-pedalling oxygen use and assumes a volitional cyclist’s efficiency.',
         }
       : null,
   };
