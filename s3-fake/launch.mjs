@@ -1,9 +1,20 @@
 // Starts s3rver, the local stand-in for S3-compatible storage, with its objects
 // in a folder of ours and the bucket Kinloop uses created if missing.
 //   node s3-fake/launch.mjs --port 4568 --directory .data/s3 --bucket kinloop-rides
-import { mkdirSync } from 'node:fs';
+import { chmodSync, mkdirSync, readdirSync, statSync } from 'node:fs';
+import path from 'node:path';
 import { parseArgs } from 'node:util';
 import S3rver from 's3rver';
+
+/** What an earlier version wrote world-readable becomes this user's alone: folders 0700, files 0600. */
+function closeTree(dir) {
+  chmodSync(dir, 0o700);
+  for (const entry of readdirSync(dir, { withFileTypes: true })) {
+    const p = path.join(dir, entry.name);
+    if (entry.isDirectory()) closeTree(p);
+    else if (entry.isFile() && statSync(p).mode & 0o077) chmodSync(p, 0o600);
+  }
+}
 
 const { values } = parseArgs({
   options: {
@@ -17,7 +28,10 @@ if (!values.directory) {
   console.error('usage: launch.mjs --directory DIR [--port N] [--bucket NAME]');
   process.exit(64);
 }
-mkdirSync(values.directory, { recursive: true });
+// Ride files are health records: s3rver's folders and files are this user's alone (0700/0600).
+process.umask(0o077);
+mkdirSync(values.directory, { recursive: true, mode: 0o700 });
+closeTree(values.directory);
 
 const server = new S3rver({
   port: Number(values.port),

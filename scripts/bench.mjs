@@ -1,11 +1,14 @@
 // Runs a benchmark script against a PostgreSQL cluster of its own (its own
 // folder and port, fsync on, so disk figures are real), then stops it.
 //   node scripts/bench.mjs scripts/bench-ingest.ts
+// KINLOOP_DATA_DIR and KINLOOP_PG_PORT move it (defaults: .data-bench, 54701,
+// clear of `npm start` and of every test slot; see scripts/lib/bench-stack.mjs).
 import { spawn } from 'node:child_process';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { appEnv, resolveConfig } from './lib/config.mjs';
-import { ensureDependencies, ensurePostgresInstalled, log, startPostgres, stopStaleCluster, wipe } from './lib/services.mjs';
+import { appEnv } from './lib/config.mjs';
+import { benchSettings, configOf, folderOf, markBenchFolder, wipeBenchFolder } from './lib/bench-stack.mjs';
+import { ensureDependencies, ensurePostgresInstalled, log, startPostgres, stopStaleCluster } from './lib/services.mjs';
 
 const root = path.dirname(path.dirname(fileURLToPath(import.meta.url)));
 const script = process.argv[2];
@@ -14,11 +17,13 @@ if (!script) {
   process.exit(64);
 }
 ensureDependencies(root);
-const defaults = { KINLOOP_DATA_DIR: '.data-bench', KINLOOP_PG_PORT: '54349', S3_ENDPOINT: 'http://127.0.0.1:1', SMTP_URL: 'smtp://127.0.0.1:1' };
+const settings = benchSettings('ingest', process.env);
 const bin = ensurePostgresInstalled();
-stopStaleCluster(bin, resolveConfig({}, { root, defaults }));
-wipe(path.join(root, '.data-bench'));
-const config = resolveConfig({}, { root, defaults });
+const dir = folderOf(settings, root);
+stopStaleCluster(bin, { dataDir: dir });
+wipeBenchFolder(dir, root, 'ingest');
+const config = configOf(settings, root);
+markBenchFolder(config.dataDir);
 const stop = startPostgres(bin, config);
 let code = 1;
 try {

@@ -1,8 +1,11 @@
 // Database tasks for `npm start` and `npm test`:
-//   tsx scripts/db.ts migrate        run pending migrations
+//   tsx scripts/db.ts migrate        run pending migrations as the owner role (DATABASE_OWNER_URL),
+//                                    then grant the app's role (DATABASE_URL) what it may do
 //   tsx scripts/db.ts seed           seed the demo scenario when the database has no clinic yet
-import { closeDb, db } from '../src/lib/db/knex';
+import { config } from '../src/lib/config';
+import { closeDb, connect, db } from '../src/lib/db/knex';
 import { migrateLatest } from '../src/lib/db/migrate';
+import { grantAppRole, roleOf } from '../src/lib/db/roles';
 import { stopQueue } from '../src/lib/jobs/queue';
 import { seedDemoIfEmpty } from '../src/lib/demo/seed';
 
@@ -10,8 +13,20 @@ const tasks = process.argv.slice(2);
 try {
   for (const task of tasks) {
     if (task === 'migrate') {
-      const applied = await migrateLatest(db());
-      console.log(applied.length ? `migrations applied: ${applied.join(', ')}` : 'database schema is up to date');
+      const { databaseUrl, databaseOwnerUrl } = config();
+      const owner = connect(databaseOwnerUrl ?? databaseUrl);
+      try {
+        const applied = await migrateLatest(owner);
+        console.log(applied.length ? `migrations applied: ${applied.join(', ')}` : 'database schema is up to date');
+        const appRole = roleOf(databaseUrl);
+        if (databaseOwnerUrl && roleOf(databaseOwnerUrl) !== appRole) {
+          await grantAppRole(owner, appRole);
+        } else {
+          console.warn(`migrations ran as the app's own role (${appRole}): the audit log is not protected from it; set DATABASE_OWNER_URL (see DEVELOPERS.md)`);
+        }
+      } finally {
+        await owner.destroy();
+      }
     } else if (task === 'seed') {
       const started = Date.now();
       const seeded = await seedDemoIfEmpty(db(), { password: process.env.KINLOOP_DEMO_PASSWORD ?? 'kinloop-demo-2026' });

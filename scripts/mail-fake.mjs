@@ -2,11 +2,21 @@
 // folder, so that development and tests can read what Kinloop sent.
 //   node scripts/mail-fake.mjs --port 2525 --dir .data/mailbox
 import { randomUUID } from 'node:crypto';
-import { mkdirSync, renameSync, writeFileSync } from 'node:fs';
+import { chmodSync, mkdirSync, readdirSync, renameSync, statSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
 import { simpleParser } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
+
+/** What an earlier version wrote world-readable becomes this user's alone: folders 0700, files 0600. */
+function closeTree(dir) {
+  chmodSync(dir, 0o700);
+  for (const entry of readdirSync(dir, { withFileTypes: true })) {
+    const p = path.join(dir, entry.name);
+    if (entry.isDirectory()) closeTree(p);
+    else if (entry.isFile() && statSync(p).mode & 0o077) chmodSync(p, 0o600);
+  }
+}
 
 const { values } = parseArgs({
   options: {
@@ -19,7 +29,10 @@ if (!values.dir) {
   console.error('usage: mail-fake.mjs --dir DIR [--port N]');
   process.exit(64);
 }
-mkdirSync(values.dir, { recursive: true });
+// Captured mail holds sign-in links: only this user may read it (folders 0700, files 0600).
+process.umask(0o077);
+mkdirSync(values.dir, { recursive: true, mode: 0o700 });
+closeTree(values.dir);
 
 const addresses = (field) => (field ? [field].flat().flatMap((a) => a.value.map((v) => v.address)) : []);
 
@@ -46,7 +59,7 @@ const server = new SMTPServer({
         };
         // Write then rename, so that a reader never sees half a message.
         const tmp = path.join(values.dir, `.${id}.tmp`);
-        writeFileSync(tmp, JSON.stringify(record, null, 2));
+        writeFileSync(tmp, JSON.stringify(record, null, 2), { mode: 0o600 });
         renameSync(tmp, path.join(values.dir, `${id}.json`));
         callback();
       })

@@ -5,5 +5,7 @@ declare namespace App {
     viewer: import('./lib/auth/viewer').Viewer | null;
     ip: string;
     userAgent: string | null;
+    /** The trusted-device cookie of the request, if valid (see src/lib/auth/rate-limit.ts). */
+    device: import('./lib/auth/cookie').TrustedDevice | null;
   }
 }

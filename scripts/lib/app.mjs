@@ -18,8 +18,10 @@ export function buildApp(config, env) {
   });
 }
 
+/** Runs scripts/db.ts tasks; only these get the owner role's URL (migrations), never the app server. */
 export function dbTasks(config, env, tasks) {
-  run(bin(config.root, 'tsx'), [path.join(config.root, 'scripts', 'db.ts'), ...tasks], { cwd: config.root, env });
+  const withOwner = config.databaseOwnerUrl ? { ...env, DATABASE_OWNER_URL: config.databaseOwnerUrl } : env;
+  run(bin(config.root, 'tsx'), [path.join(config.root, 'scripts', 'db.ts'), ...tasks], { cwd: config.root, env: withOwner });
 }
 
 export function startApp(supervisor, config, env) {

@@ -2,7 +2,7 @@
 // cluster, the S3 stand-in and the SMTP fake. Plain Node, no dependencies beyond
 // what `ensureDependencies` installs, so that `npm start` works on a fresh clone.
 import { spawn, spawnSync } from 'node:child_process';
-import { chownSync, existsSync, mkdirSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { chmodSync, chownSync, existsSync, mkdirSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 
 const isRoot = typeof process.getuid === 'function' && process.getuid() === 0;
@@ -110,11 +110,38 @@ export function stopStaleCluster(bin, config) {
 }
 
 /**
+ * PostgreSQL runs as its own user and must pass through the private data
+ * folder, and every folder above it, to reach its cluster. Folders of the
+ * project (the data folder, a test's folder around it) get search permission
+ * for postgres's group only, never read and nothing for others; a folder
+ * outside the project that it cannot pass is reported, not changed.
+ */
+function letPostgresReach(config) {
+  const { gid } = postgresIds();
+  const canPass = (dir) => run('runuser', ['-u', 'postgres', '--', 'test', '-x', dir], { quiet: true, allowFailure: true }).status === 0;
+  const chain = [];
+  for (let dir = config.dataDir; dir !== path.dirname(dir); dir = path.dirname(dir)) chain.unshift(dir);
+  for (const dir of chain) {
+    if (canPass(dir)) continue;
+    const inProject = dir === config.dataDir || !path.relative(config.root, dir).startsWith('..');
+    if (!inProject) {
+      throw new Error(`PostgreSQL runs as the postgres user and cannot pass through ${dir} to reach ${config.dataDir}; allow it (for example chmod o+x ${dir}) or choose another KINLOOP_DATA_DIR`);
+    }
+    const { uid, mode } = statSync(dir);
+    chownSync(dir, uid, gid);
+    chmodSync(dir, (mode & 0o700) | 0o010);
+  }
+}
+
+/**
  * Creates (first run) and starts the project's own cluster on 127.0.0.1, then
- * makes sure the `kinloop` role and database exist. Returns a stop function.
+ * makes sure its two roles and the database exist: `kinloop_owner` owns the
+ * database and runs the migrations, `kinloop` is the app's role (granted its
+ * table rights by `scripts/db.ts migrate`). Returns a stop function.
  */
 export function startPostgres(bin, config) {
   const { data, socket, log: logFile } = pgPaths(config);
+  if (isRoot) letPostgresReach(config);
   ownDir(socket);
   if (!existsSync(path.join(data, 'PG_VERSION'))) {
     log(`creating the database cluster in ${data}…`);
@@ -127,7 +154,7 @@ export function startPostgres(bin, config) {
   }
   if (isRoot) {
     const { uid, gid } = postgresIds();
-    if (!existsSync(logFile)) writeFileSync(logFile, '');
+    if (!existsSync(logFile)) writeFileSync(logFile, '', { mode: 0o600 });
     chownSync(logFile, uid, gid);
   }
   stopStaleCluster(bin, config);
@@ -140,16 +167,35 @@ export function startPostgres(bin, config) {
 
   const psql = (sql, db = 'postgres') =>
     run(path.join(bin, 'psql'), ['-X', '-q', '-t', '-A', '-h', socket, '-p', String(config.pgPort), '-U', 'postgres', '-d', db, '-v', 'ON_ERROR_STOP=1', '-c', sql], { quiet: true }).stdout.trim();
-  const pw = config.pgPassword.replace(/'/g, "''");
-  if (psql("SELECT 1 FROM pg_roles WHERE rolname = 'kinloop'") !== '1') {
-    psql(`CREATE ROLE kinloop LOGIN CREATEDB PASSWORD '${pw}'`);
-  } else {
-    psql(`ALTER ROLE kinloop LOGIN CREATEDB PASSWORD '${pw}'`);
-  }
+  const literal = (v) => `'${v.replace(/'/g, "''")}'`;
+  const ensureRole = (name, password, options) => {
+    const verb = psql(`SELECT 1 FROM pg_roles WHERE rolname = ${literal(name)}`) === '1' ? 'ALTER' : 'CREATE';
+    psql(`${verb} ROLE ${name} ${options} PASSWORD ${literal(password)}`);
+  };
+  const owner = config.pgOwnerRole;
+  const app = config.pgAppRole;
+  ensureRole(owner, config.pgOwnerPassword, 'LOGIN NOSUPERUSER NOCREATEROLE NOCREATEDB');
   // CREATEDB lets tests make throwaway databases of their own in the cluster.
+  ensureRole(app, config.pgPassword, 'LOGIN NOSUPERUSER NOCREATEROLE CREATEDB');
   if (psql("SELECT 1 FROM pg_database WHERE datname = 'kinloop'") !== '1') {
-    psql('CREATE DATABASE kinloop OWNER kinloop');
+    psql(`CREATE DATABASE kinloop OWNER ${owner}`);
   }
+  // A cluster made before the owner role existed has everything owned by the
+  // app's role: hand the database and its tables to the owner.
+  psql(`ALTER DATABASE kinloop OWNER TO ${owner}`);
+  psql(`DO $$ DECLARE r record; BEGIN
+    FOR r IN SELECT c.relname, c.relkind FROM pg_class c JOIN pg_namespace n ON n.oid = c.relnamespace
+             WHERE n.nspname = 'public' AND c.relkind IN ('r', 'p', 'v', 'm', 'S') AND pg_get_userbyid(c.relowner) = ${literal(app)}
+               AND NOT (c.relkind = 'S' AND EXISTS (SELECT 1 FROM pg_depend d WHERE d.objid = c.oid AND d.deptype IN ('a', 'i')))
+    LOOP EXECUTE format('ALTER %s public.%I OWNER TO ${owner}', CASE r.relkind WHEN 'S' THEN 'SEQUENCE' WHEN 'v' THEN 'VIEW' WHEN 'm' THEN 'MATERIALIZED VIEW' ELSE 'TABLE' END, r.relname);
+    END LOOP;
+    FOR r IN SELECT p.oid::regprocedure AS fn FROM pg_proc p JOIN pg_namespace n ON n.oid = p.pronamespace
+             WHERE n.nspname = 'public' AND pg_get_userbyid(p.proowner) = ${literal(app)}
+    LOOP EXECUTE format('ALTER FUNCTION %s OWNER TO ${owner}', r.fn);
+    END LOOP;
+  END $$`, 'kinloop');
+  // The job queue (pg-boss) creates and migrates a schema of its own at start, as the app.
+  psql(`GRANT CONNECT, TEMPORARY, CREATE ON DATABASE kinloop TO ${app}`);
 
   return () => {
     asPgOwner(path.join(bin, 'pg_ctl'), ['-D', data, 'stop', '-m', 'fast', '-w'], { quiet: true, allowFailure: true });
@@ -233,7 +279,7 @@ export class Supervisor {
 
 export function startS3(supervisor, config) {
   const dir = path.join(config.dataDir, 's3');
-  mkdirSync(dir, { recursive: true });
+  mkdirSync(dir, { recursive: true, mode: 0o700 });
   log(`starting the S3 stand-in on 127.0.0.1:${config.s3Port}…`);
   return supervisor.start('s3', process.execPath, [
     path.join(config.root, 's3-fake', 'launch.mjs'),
@@ -242,7 +288,7 @@ export function startS3(supervisor, config) {
 }
 
 export function startSmtp(supervisor, config) {
-  mkdirSync(config.mailboxDir, { recursive: true });
+  mkdirSync(config.mailboxDir, { recursive: true, mode: 0o700 });
   log(`starting the SMTP fake on 127.0.0.1:${config.smtpPort}…`);
   return supervisor.start('mail', process.execPath, [
     path.join(config.root, 'scripts', 'mail-fake.mjs'),

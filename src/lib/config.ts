@@ -23,6 +23,8 @@ export interface AppConfig {
   allowedOrigins: string[];
   secureCookies: boolean;
   databaseUrl: string;
+  /** The owner role's connection, for migrations only; null runs them as the app's role (see DEVELOPERS.md). */
+  databaseOwnerUrl: string | null;
   sessionSecret: string;
   s3: { endpoint: string; bucket: string; region: string; accessKeyId: string; secretAccessKey: string };
   smtpUrl: string;
@@ -47,6 +49,7 @@ export function config(): AppConfig {
     allowedOrigins: [...new Set([new URL(publicUrl).origin, `http://127.0.0.1:${port}`, `http://localhost:${port}`])],
     secureCookies: publicUrl.startsWith('https:'),
     databaseUrl: required('DATABASE_URL'),
+    databaseOwnerUrl: process.env.DATABASE_OWNER_URL || null,
     sessionSecret: required('SESSION_SECRET'),
     s3: {
       endpoint: required('S3_ENDPOINT'),

@@ -11,6 +11,8 @@ const SEEDED = [
   { client: 'Hollis Ferreira', severity: 'review', kind: 'power_drop', words: 'Power drop' },
   { client: 'Kofi Mensah-Lowe', severity: 'review', kind: 'current_rise', words: 'Current rise' },
   { client: 'Elsie Varga', severity: 'info', kind: 'short_session', words: 'Short sessions' },
+  // Her missed week three weeks ago, made up since: the flag stays, cleared.
+  { client: 'Mairi Caldwell', severity: 'review', kind: 'missed_sessions', words: 'Missed sessions' },
 ];
 
 let browser: Browser;

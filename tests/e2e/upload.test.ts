@@ -3,31 +3,35 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { sessionDateTime } from '../../src/components/rides/format';
 import { seriousViolations } from '../support/axe';
 import { baseUrl, launchBrowser, signInThroughPage } from '../support/browser';
-import { rideCsv } from '../support/rides';
+import { Http } from '../support/http';
+import { rideCsv, uploadAndWait } from '../support/rides';
 
 const root = process.env.KINLOOP_ROOT ?? process.cwd();
 const REFUSED_NAME = 'refused-no-time-column.csv';
 const refusedText = readFileSync(path.join(root, 'fixtures', 'rides', REFUSED_NAME), 'utf8');
 const FINAL = ['accepted', 'duplicate', 'refused', 'failed'];
+const DEMO_PASSWORD = process.env.KINLOOP_DEMO_PASSWORD ?? 'kinloop-demo-2026';
 
 /**
- * Two rides of this run, hours apart on a random day of 2025 between 09:00 and
- * 12:00 UTC (the same calendar day in London), so that neither is a duplicate
- * of a session an earlier run left in the database.
+ * Two-minute rides on days of 2025, long before the demo's rides (which end
+ * on the day it is seeded), each test its own, so that none is a duplicate of
+ * another session. London is on GMT on these days, so local time is UTC.
  */
-function ridesOfThisRun() {
-  const day = Date.UTC(2025, 0, 1) + randomInt(0, 365) * 86_400_000;
-  const first = new Date(day + 9 * 3_600_000 + randomInt(0, 60) * 60_000);
-  const second = new Date(first.getTime() + 3 * 3_600_000);
-  // One decimal, so that the page's rounding to one decimal shows it exactly.
-  const power = () => 20 + randomInt(0, 100) / 10;
-  return [first, second].map((start, i) => {
-    const powerW = power();
-    return { name: `ride-${i + 1}-${start.getTime()}.csv`, text: rideCsv({ startedAt: start.toISOString(), minutes: 2, powerW }), startedAt: start.toISOString(), powerW };
-  });
+const ride = (startedAt: string, powerW: number) => ({ name: `ride-${startedAt.replace(/[:.]/g, '')}.csv`, text: rideCsv({ startedAt, minutes: 2, powerW }), startedAt, powerW });
+const DRAGGED = [ride('2025-03-14T09:27:00.000Z', 23.4), ride('2025-03-14T12:27:00.000Z', 27.1)];
+const CHOSEN = ride('2025-02-03T10:05:00.000Z', 21.6);
+
+/** Uploads a ride for Jonah through the API as his carer and returns the session page's path. */
+async function sessionOfJonah(r: ReturnType<typeof ride>): Promise<string> {
+  const carer = await new Http().signIn('carer@kinloop.test', DEMO_PASSWORD);
+  const me = (await carer.json('GET', '/api/me')).body as { carerOf: string[] };
+  const names = await Promise.all(me.carerOf.map(async (id) => [id, (await carer.json('GET', `/api/clients/${id}`)).body.name] as const));
+  const jonah = names.find(([, name]) => name === 'Jonah Pryce')![0];
+  const [result] = await uploadAndWait(carer, jonah, [{ name: r.name, content: r.text }]);
+  expect(result.status).toBe('accepted');
+  return `/sessions/${result.sessionId}`;
 }
 
 async function signedIn(email: string): Promise<{ context: BrowserContext; page: Page }> {
@@ -67,7 +71,6 @@ async function waitForResults(page: Page, count: number) {
 const item = (page: Page, name: string) => page.getByTestId('upload-item').filter({ hasText: name });
 
 let browser: Browser;
-let sessionUrl = '';
 beforeAll(async () => {
   browser = await launchBrowser();
 });
@@ -81,7 +84,7 @@ describe('uploading ride files', () => {
     await openUploadFor(page, 'Jonah Pryce');
     expect(await seriousViolations(page)).toEqual([]);
 
-    const rides = ridesOfThisRun();
+    const rides = DRAGGED;
     await dragFiles(page, [rides[0], { name: REFUSED_NAME, text: refusedText }, rides[1]]);
     await waitForResults(page, 3);
 
@@ -90,10 +93,16 @@ describe('uploading ride files', () => {
       await expect(row.getAttribute('data-status')).resolves.toBe('accepted');
       const text = (await row.textContent()) ?? '';
       // source: tests/support/rides.ts writes 120 one-second samples, 20 passive, 90 active, 10 cool-down, at a constant active power.
-      expect(text).toContain(`session of ${sessionDateTime(ride.startedAt, 'en-US', 'Europe/London')}`);
       expect(text).toMatch(/Duration\s*2 min/);
       expect(text).toMatch(/Active\s*1\.5 min/);
-      expect(text).toContain(`Mean power${ride.powerW.toFixed(1)} W`);
+    }
+    // from memory: en-US long weekday, month and year with a two-digit 12-hour clock, as ICU writes them.
+    await expect(item(page, rides[0].name).textContent()).resolves.toContain('session of Friday, March 14, 2025 at 09:27 AM');
+    await expect(item(page, rides[0].name).textContent()).resolves.toContain('Mean power23.4 W');
+    await expect(item(page, rides[1].name).textContent()).resolves.toContain('session of Friday, March 14, 2025 at 12:27 PM');
+    await expect(item(page, rides[1].name).textContent()).resolves.toContain('Mean power27.1 W');
+    for (const ride of rides) {
+      const row = item(page, ride.name);
       await expect(row.getByRole('link', { name: 'Open session' }).getAttribute('href')).resolves.toMatch(/^\/sessions\/[0-9a-f-]{36}$/);
     }
     const refused = item(page, REFUSED_NAME);
@@ -108,19 +117,18 @@ describe('uploading ride files', () => {
     expect(log).toContain(`${REFUSED_NAME} refused at line 2`);
 
     expect(await seriousViolations(page)).toEqual([]);
-    sessionUrl = (await item(page, rides[0].name).getByRole('link', { name: 'Open session' }).getAttribute('href'))!;
 
     // The same ride again is recognised, and says which session it already is.
     await dragFiles(page, [rides[0]]);
     await waitForResults(page, 4);
     const again = page.getByTestId('upload-item').nth(3);
     await expect(again.getAttribute('data-status')).resolves.toBe('duplicate');
-    await expect(again.textContent()).resolves.toContain(`Already in Kinloop as the session of ${sessionDateTime(rides[0].startedAt, 'en-US', 'Europe/London')}`);
+    await expect(again.textContent()).resolves.toContain('Already in Kinloop as the session of Friday, March 14, 2025 at 09:27 AM');
     await context.close();
   });
 
   it('the session page shows the figures and charts, offers the original file to its uploader, and passes axe-core', async () => {
-    expect(sessionUrl).not.toBe('');
+    const sessionUrl = await sessionOfJonah(ride('2025-01-20T15:40:00.000Z', 24.8));
     const { context, page } = await signedIn('carer@kinloop.test');
     await page.goto(`${baseUrl()}${sessionUrl}`);
     await expect(page.getByRole('heading', { level: 1 }).textContent()).resolves.toMatch(/^Session of /);
@@ -138,6 +146,7 @@ describe('uploading ride files', () => {
   });
 
   it('a session the viewer may not see is a friendly 404', async () => {
+    const sessionUrl = await sessionOfJonah(ride('2025-01-22T15:40:00.000Z', 25.2));
     const { context, page } = await signedIn('carer2@kinloop.test');
     const res = await page.goto(`${baseUrl()}${sessionUrl}`);
     expect(res?.status()).toBe(404);
@@ -164,10 +173,9 @@ describe('uploading ride files', () => {
     await page.keyboard.press('Enter');
     const chooser = await chooserOpened;
     expect(chooser.isMultiple()).toBe(true);
-    const [ride] = ridesOfThisRun();
-    await chooser.setFiles({ name: ride.name, mimeType: 'text/csv', buffer: Buffer.from(ride.text) });
+    await chooser.setFiles({ name: CHOSEN.name, mimeType: 'text/csv', buffer: Buffer.from(CHOSEN.text) });
     await waitForResults(page, 1);
-    await expect(item(page, ride.name).getAttribute('data-status')).resolves.toBe('accepted');
+    await expect(item(page, CHOSEN.name).getAttribute('data-status')).resolves.toBe('accepted');
     await context.close();
   });
 });

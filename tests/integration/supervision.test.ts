@@ -1,9 +1,11 @@
 // Scenario tests: each builds a client's history through the real ingest path
 // (uploads → parse jobs → sessions) and asserts the exact flags, weeks and
 // streak that the therapist would see.
+import { DateTime } from 'luxon';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb } from '../../src/lib/db/knex';
-import { evaluate, flagsOf, live, mondayOf, newClient, ride, steadyWeek, type RidePlan } from '../support/scenario';
+import { evaluateClientFlags } from '../../src/lib/supervision/flag-store';
+import { evaluate, flagsOf, live, mondayOf, newClient, ride, steadyWeek, ZONE, type RidePlan } from '../support/scenario';
 import { createWorld, type World } from '../support/world';
 
 let world: World;
@@ -149,25 +151,104 @@ describe('supervision scenarios', () => {
     }
     expect(kinds).toEqual(['power_drop']);
   });
+
+  it('a short week made up the week after leaves the same cleared flag whether the files came week by week or in one late batch', async () => {
+    const plan = [...weeks(4, 3), { weeksAgo: 2, day: 0 }, { weeksAgo: 2, day: 2 }, ...weeks(1, 1)];
+    const therapist = await world.as('therapist');
+    const atOnce = await newClient(world, 4);
+    await ride(therapist, atOnce, plan);
+    const weekly = await newClient(world, 4);
+    for (const weeksAgo of [4, 3, 2, 1]) {
+      await ride(therapist, weekly, plan.filter((p) => p.weeksAgo === weeksAgo));
+      // Judged on the Monday morning after that week, as the hourly sweep would.
+      await evaluateClientFlags(world.knex, weekly, mondayOf(weeksAgo - 1).plus({ hours: 8 }).toJSDate());
+    }
+    const shown = async (id: string) =>
+      live(await evaluate(world, id)).map((f) => ({ kind: f.kind, severity: f.severity, cleared: f.clearedAt !== null, week: f.evidence.isoWeek }));
+    const expected = [{ kind: 'missed_sessions', severity: 'review', cleared: true, week: mondayOf(2).toFormat("kkkk-'W'WW") }];
+    expect(await shown(weekly)).toEqual(expected);
+    expect(await shown(atOnce)).toEqual(expected);
+  });
+
+  it('the clinic’s thresholds decide the verdict', async () => {
+    // A clinic of its own, so that its settings touch no other test's clients.
+    const own = await createWorld('thresholds');
+    const admin = await own.as('admin');
+    const thresholds = { countThresholdPct: 80, missedNoSessionDays: 10, powerDropReviewPct: 10, powerDropUrgentPct: 30, baselineSessions: 6, baselineMinSessions: 4, currentRiseReviewPct: 25, shortSessionsOfLast3: 2 };
+    const saved = await admin.json('PUT', '/api/clinic/settings', thresholds);
+    expect(saved.status).toBe(200);
+    expect(saved.body.flagThresholds).toEqual(thresholds);
+    // 17 W against the usual 20 W is 15 % below: under the default 20 % line, over this clinic's 10 %.
+    const id = await newClient(own, 4);
+    await ride(await own.as('therapist'), id, [...weeks(4, 2), { weeksAgo: 1, day: 0 }, { weeksAgo: 1, day: 2, powerW: 17, currentMa: 51 }, { weeksAgo: 1, day: 4, powerW: 17, currentMa: 51 }]);
+    const flags = live(await evaluate(own, id));
+    expect(flags.map((f) => [f.kind, f.severity])).toEqual([['power_drop', 'review']]);
+    expect(flags[0].evidence).toMatchObject({ baseline: 20, reviewPct: 10, urgentPct: 30 });
+    // Back to the defaults, the same rides never held a drop: the flag is withdrawn.
+    expect((await admin.json('PUT', '/api/clinic/settings', {})).status).toBe(200);
+    expect((await evaluate(own, id)).filter((f) => f.kind === 'power_drop').map((f) => f.state)).toEqual(['withdrawn']);
+  });
+});
+
+describe('prescriptions and pauses', () => {
+  it('refuses a version that starts before the current one, and accepts one from the same day', async () => {
+    const id = await newClient(world, 2);
+    const therapist = await world.as('therapist');
+    const current = mondayOf(2).toISODate();
+    const earlier = await therapist.json('PUT', `/api/clients/${id}/prescription`, { sessionsPerWeek: 2, minutesPerSession: 40, effectiveFrom: mondayOf(3).toISODate() });
+    expect(earlier.status).toBe(400);
+    expect(earlier.body.error.message).toBe(`Effective date: the new version cannot start before the current one (${current}).`);
+    expect(earlier.body.error.fields).toEqual([{ path: 'effectiveFrom', message: `Choose ${current} or later.` }]);
+    const sameDay = await therapist.json('PUT', `/api/clients/${id}/prescription`, { sessionsPerWeek: 2, minutesPerSession: 40, effectiveFrom: current });
+    expect(sameDay.status).toBe(201);
+    const read = (await therapist.json('GET', `/api/clients/${id}/prescription`)).body;
+    expect(read.history.map((v: { version: number; sessionsPerWeek: number }) => [v.version, v.sessionsPerWeek])).toEqual([[2, 2], [1, 3]]);
+  });
+
+  it('ending a pause under way ends it yesterday; one that has not begun is cancelled; an ended one cannot be ended again', async () => {
+    const id = await newClient(world, 2);
+    const therapist = await world.as('therapist');
+    // luxon as the reference for the client's calendar.
+    const today = DateTime.now().setZone(ZONE).startOf('day');
+    const create = (from: DateTime, to: DateTime) => therapist.json('POST', `/api/clients/${id}/pauses`, { from: from.toISODate(), to: to.toISODate(), reason: 'Hospital stay' });
+    const underWay = await create(today.minus({ days: 3 }), today.plus({ days: 10 }));
+    const upcoming = await create(today.plus({ days: 20 }), today.plus({ days: 25 }));
+    expect([underWay.status, upcoming.status]).toEqual([201, 201]);
+    expect([underWay.body.state, upcoming.body.state]).toEqual(['active', 'upcoming']);
+
+    const ended = await therapist.json('POST', `/api/clients/${id}/pauses/${underWay.body.id}/end`);
+    expect(ended.status).toBe(200);
+    expect(ended.body).toMatchObject({ from: today.minus({ days: 3 }).toISODate(), to: today.minus({ days: 1 }).toISODate(), state: 'ended' });
+    const cancelled = await therapist.json('POST', `/api/clients/${id}/pauses/${upcoming.body.id}/end`);
+    expect(cancelled.body).toMatchObject({ from: today.plus({ days: 20 }).toISODate(), to: today.plus({ days: 25 }).toISODate(), state: 'cancelled' });
+
+    const again = await therapist.json('POST', `/api/clients/${id}/pauses/${underWay.body.id}/end`);
+    expect(again.status).toBe(400);
+    expect(again.body.error.message).toBe('This pause is over already.');
+    const list = (await therapist.json('GET', `/api/clients/${id}/pauses`)).body.pauses;
+    expect(list.map((p: { state: string }) => p.state).sort()).toEqual(['cancelled', 'ended']);
+  });
 });
 
 describe('triage', () => {
   it('lists the clinic’s flagged clients, most severe first, and an acknowledged flag leaves the list', async () => {
+    // Three clients of this test's own, with a flag each (written as the planner would leave them).
     const therapist = await world.as('therapist');
-    const triage = await therapist.json('GET', '/api/triage');
-    expect(triage.status).toBe(200);
-    const mine = triage.body.filter((r: { clientName: string }) => r.clientName.includes(world.tag));
-    expect(mine.length).toBeGreaterThan(0);
-    const ranks = mine.map((r: { flags: { severity: string }[] }) => ['urgent', 'review', 'info'].indexOf(r.flags[0].severity));
-    expect([...ranks].sort()).toEqual(ranks);
-    for (const row of mine) expect(row).toEqual(expect.objectContaining({ lastSessionAt: expect.any(String), streakWeeks: expect.any(Number) }));
-    const target = mine[0];
-    await therapist.json('POST', `/api/flags/${target.flags[0].id}`, { action: 'acknowledge' });
-    const again = await therapist.json('GET', '/api/triage');
-    const still = again.body.find((r: { clientId: string }) => r.clientId === target.clientId);
-    expect(still?.flags.map((f: { id: string }) => f.id) ?? []).not.toContain(target.flags[0].id);
-    const other = await world.as('otherTherapist');
-    const theirs = await other.json('GET', '/api/triage');
-    expect(theirs.body.some((r: { clientName: string }) => r.clientName.includes(world.tag))).toBe(false);
+    const flagged: Record<string, string> = {};
+    for (const severity of ['info', 'urgent', 'review']) {
+      const created = await therapist.json('POST', '/api/clients', { name: `Triage ${severity} ${world.tag}`, timezone: ZONE, diagnosis: 'sci', injuryLevel: 'T8' });
+      expect(created.status).toBe(201);
+      flagged[severity] = created.body.id;
+      await world.knex('flags').insert({ client_id: created.body.id, clinic_id: world.clinicId, kind: 'short_session', severity, state: 'open', anchor: `triage-${severity}`, reason: `A ${severity} flag.`, evidence: '{}' });
+    }
+    const mine = async (who = therapist) =>
+      ((await who.json('GET', '/api/triage')).body as { clientId: string; clientName: string; flags: { id: string; severity: string }[] }[]).filter((r) => Object.values(flagged).includes(r.clientId));
+    const rows = await mine();
+    expect(rows.map((r) => r.flags.map((f) => f.severity))).toEqual([['urgent'], ['review'], ['info']]);
+    expect(rows.map((r) => r.clientId)).toEqual([flagged.urgent, flagged.review, flagged.info]);
+
+    expect((await therapist.json('POST', `/api/flags/${rows[0].flags[0].id}`, { action: 'acknowledge' })).status).toBe(200);
+    expect((await mine()).map((r) => r.clientId)).toEqual([flagged.review, flagged.info]);
+    expect(await mine(await world.as('otherTherapist'))).toEqual([]);
   });
 });

@@ -8,15 +8,20 @@ import { baseUrl } from './browser';
  * per-address sign-in limit of one test never blocks another.
  */
 export class Http {
+  /** The session cookie (`kinloop_session=…`), or null. */
   cookie: string | null = null;
+  /** The trusted-device cookie (`kinloop_device=…`) a sign-in left, kept like a browser keeps it. */
+  device: string | null = null;
   // An address of the IPv6 documentation range with 64 random bits: never shared by two clients.
-  readonly address = `203.0.113.7, 2001:db8:${randomBytes(8).toString('hex').match(/.{4}/g)!.join(':')}`;
+  // Tests that need two clients on one address (a shared connection) copy it.
+  address = `203.0.113.7, 2001:db8:${randomBytes(8).toString('hex').match(/.{4}/g)!.join(':')}`;
 
   constructor(readonly origin = baseUrl()) {}
 
   async request(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Response> {
     const h: Record<string, string> = { 'x-forwarded-for': this.address, ...headers };
-    if (this.cookie) h.cookie = this.cookie;
+    const jar = [this.cookie, this.device].filter(Boolean).join('; ');
+    if (jar) h.cookie = jar;
     if (method !== 'GET' && method !== 'HEAD' && !('origin' in h)) h.origin = this.origin;
     let payload: BodyInit | undefined;
     if (body instanceof FormData || typeof body === 'string' || body instanceof Uint8Array) {
@@ -26,11 +31,14 @@ export class Http {
       payload = JSON.stringify(body);
     }
     const res = await fetch(this.origin + path, { method, headers: h, body: payload, redirect: 'manual' });
-    const set = res.headers.getSetCookie().find((c) => c.startsWith('kinloop_session='));
-    if (set) {
+    const kept = (name: string, current: string | null) => {
+      const set = res.headers.getSetCookie().find((c) => c.startsWith(`${name}=`));
+      if (!set) return current;
       const value = set.split(';')[0];
-      this.cookie = value === 'kinloop_session=' || /expires=Thu, 01 Jan 1970/i.test(set) ? null : value;
-    }
+      return value === `${name}=` || /expires=Thu, 01 Jan 1970/i.test(set) ? null : value;
+    };
+    this.cookie = kept('kinloop_session', this.cookie);
+    this.device = kept('kinloop_device', this.device);
     return res;
   }
 

@@ -64,7 +64,7 @@ export async function evaluate(world: World, clientId: string) {
 export async function flagsOf(world: World, clientId: string) {
   const therapist = await world.as('therapist');
   const res = await therapist.json('GET', `/api/clients/${clientId}/flags`);
-  return res.body.flags as { id: string; kind: string; severity: string; state: string; reason: string; evidence: any; history: { action: string; note: string | null }[] }[];
+  return res.body.flags as { id: string; kind: string; severity: string; state: string; reason: string; evidence: any; clearedAt: string | null; history: { action: string; note: string | null }[] }[];
 }
 
 export const live = (flags: Awaited<ReturnType<typeof flagsOf>>) => flags.filter((f) => f.state === 'open' || f.state === 'acknowledged');

@@ -4,8 +4,6 @@ import { api, ApiError } from '../api';
 import { Alert } from '../ui/Alert';
 import { TextField } from '../ui/Field';
 
-/** Only same-site paths are followed after sign-in, never another site. */
-
 /**
  * Works before (and without) JavaScript too: the form then posts to the
  * sign-in page itself, which signs in on the server.
@@ -24,7 +22,7 @@ export default function SignInForm({ next, initialEmail = '', initialError = nul
     setError(null);
     try {
       const res = await api<{ home: string }>('POST', '/api/auth/sign-in', { email, password });
-      window.location.assign(safeNext(next) ?? res.home);
+      window.location.assign(safeNext(next, window.location.origin) ?? res.home);
     } catch (err) {
       setError(err as ApiError);
       setBusy(false);

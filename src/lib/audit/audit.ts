@@ -12,6 +12,14 @@ export interface AuditEntry {
   detail?: Record<string, unknown>;
 }
 
+/**
+ * A value as the log can hold it: PostgreSQL text and JSONB refuse NUL and
+ * broken UTF-16, and a refused write must never turn a request into a 500.
+ */
+function storable(value: string): string {
+  return value.replace(/\u0000/g, '\ufffd').toWellFormed();
+}
+
 /** Appends to the audit log. Pass the transaction when the change it records has one, so both land or neither. */
 export async function audit(knex: Knex | Knex.Transaction, entry: AuditEntry): Promise<void> {
   await knex('audit_log').insert({
@@ -20,9 +28,9 @@ export async function audit(knex: Knex | Knex.Transaction, entry: AuditEntry): P
     clinic_id: entry.clinicId ?? null,
     client_id: entry.clientId ?? null,
     record_type: entry.recordType ?? null,
-    record_id: entry.recordId ?? null,
+    record_id: entry.recordId === null || entry.recordId === undefined ? null : storable(entry.recordId).slice(0, 200),
     ip: entry.ip ?? null,
-    user_agent: entry.userAgent?.slice(0, 400) ?? null,
-    detail: JSON.stringify(entry.detail ?? {}),
+    user_agent: entry.userAgent ? storable(entry.userAgent).slice(0, 400) : null,
+    detail: JSON.stringify(entry.detail ?? {}, (_key, v) => (typeof v === 'string' ? storable(v) : v)),
   });
 }

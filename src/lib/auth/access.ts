@@ -32,9 +32,37 @@ export function canManageClient(viewer: Viewer, client: Pick<ClientRow, 'clinic_
   return isStaffOf(viewer, client.clinic_id);
 }
 
+/** What a refusal names: the record asked for, so that "missing" and "not yours" read the same. */
+export interface AskedRecord {
+  /** "That session", "That flag": the words of the 404. */
+  what: string;
+  type: string;
+  id: string;
+}
+
+const isUuid = (id: string) => /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id);
+
+/**
+ * A refused request for a client's record leaves a trace. A record the caller
+ * may not see (404) is logged without its clinic, so that no clinic's admins
+ * learn of another clinic's records; the caller's own clinic sees that they
+ * were refused. A role refusal (403) on a record they may see names it.
+ */
+async function auditRefusal(ctx: RequestContext, status: 403 | 404, asked: AskedRecord, need: ClientNeed, action: string, client?: ClientRow) {
+  await auditAs(ctx, {
+    action: 'access.denied',
+    clinicId: client?.clinic_id ?? null,
+    clientId: client?.id ?? null,
+    recordType: asked.type,
+    recordId: asked.id,
+    detail: { status, need, action },
+  });
+}
+
 /**
  * Loads a client the caller needs `need` on, and writes `auditAction` to the
- * audit log, or throws 404 / 403.
+ * audit log, or throws 404 / 403 (and logs the refusal). `asked` is the record
+ * the request named when it was not the client itself (a session, a flag).
  */
 export async function accessClient(
   ctx: RequestContext,
@@ -42,14 +70,39 @@ export async function accessClient(
   need: ClientNeed,
   auditAction: string,
   detail: Record<string, unknown> = {},
+  asked: AskedRecord = { what: 'That client', type: 'client', id: clientId },
 ): Promise<ClientRow> {
-  const client = /^[0-9a-f-]{36}$/i.test(clientId)
-    ? await ctx.knex<ClientRow>('clients').where({ id: clientId }).whereNull('archived_at').first()
-    : undefined;
-  if (!client || !canReadClient(ctx.viewer, client)) throw notFound('That client');
-  if (need === 'manage' && !canManageClient(ctx.viewer, client)) throw forbidden();
+  const client = isUuid(clientId) ? await ctx.knex<ClientRow>('clients').where({ id: clientId }).whereNull('archived_at').first() : undefined;
+  if (!client || !canReadClient(ctx.viewer, client)) {
+    await auditRefusal(ctx, 404, asked, need, auditAction);
+    throw notFound(asked.what);
+  }
+  if (need === 'manage' && !canManageClient(ctx.viewer, client)) {
+    await auditRefusal(ctx, 403, asked, need, auditAction, client);
+    throw forbidden();
+  }
   await auditAs(ctx, { action: auditAction, clinicId: client.clinic_id, clientId: client.id, detail });
   return client;
+}
+
+/**
+ * A client's record asked for by its own id (a session, a flag, an upload):
+ * a missing record and one of a client the caller may not see answer the same
+ * 404, and both are logged.
+ */
+export async function accessClientRecord<T extends { client_id: string }>(
+  ctx: RequestContext,
+  row: T | undefined,
+  asked: AskedRecord,
+  need: ClientNeed,
+  auditAction: string,
+  detail: Record<string, unknown> = {},
+): Promise<{ row: T; client: ClientRow }> {
+  if (!row) {
+    await auditRefusal(ctx, 404, asked, need, auditAction);
+    throw notFound(asked.what);
+  }
+  return { row, client: await accessClient(ctx, row.client_id, need, auditAction, detail, asked) };
 }
 
 /** The clients the caller may see, as a query to refine. */

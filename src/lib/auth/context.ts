@@ -27,3 +27,15 @@ export function signedIn(locals: RequestLocals): RequestContext {
 export function auditAs(ctx: RequestContext, entry: Omit<AuditEntry, 'actorUserId' | 'ip' | 'userAgent'>, knex: Knex | Knex.Transaction = ctx.knex) {
   return audit(knex, { ...entry, actorUserId: ctx.viewer.userId, ip: ctx.ip, userAgent: ctx.userAgent });
 }
+
+/**
+ * Records which clients a list (triage, caseload, client list) showed: one
+ * entry per clinic, so each clinic's admins see what was shown of their own
+ * clinic and nothing of another's. Filtering the log by a client finds them.
+ */
+export async function auditListed(ctx: RequestContext, action: string, shown: { id: string; clinic_id: string }[]) {
+  const byClinic = new Map<string, string[]>();
+  for (const c of shown) byClinic.set(c.clinic_id, [...(byClinic.get(c.clinic_id) ?? []), c.id]);
+  if (!byClinic.size) return auditAs(ctx, { action, detail: { count: 0, clientIds: [] } });
+  for (const [clinicId, clientIds] of byClinic) await auditAs(ctx, { action, clinicId, detail: { count: clientIds.length, clientIds } });
+}

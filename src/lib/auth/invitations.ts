@@ -8,21 +8,22 @@ import { enqueueEmail } from '../mail/outbox';
 import { invitationEmail } from '../mail/templates';
 import { accessClient, staffClinic } from './access';
 import { auditAs, type RequestContext } from './context';
-import { hashPassword, passwordSchema, verifyPassword } from './password';
+import { hashPassword, passwordSchema, setPassword } from './password';
 import { createSession } from './sessions';
-import { findUserByEmail, normaliseEmail, type RequestMeta } from './sign-in';
+import { checkPassword, findUserByEmail, normaliseEmail, type RequestMeta } from './sign-in';
 import { hashToken, newToken } from './tokens';
+import { line } from '../validation/fields';
 
 export const INVITATION_DAYS = 7;
 
 export const invitationInputSchema = z
   .object({
-    email: z.string().trim().email('Enter a valid e-mail address.').max(254),
-    name: z.string().trim().min(1).max(120).optional(),
+    email: line(z.string().trim().email('Enter a valid e-mail address.').max(254), 'E-mail'),
+    name: line(z.string().trim().min(1).max(120), 'Name').optional(),
     role: z.enum(['admin', 'therapist', 'client', 'carer']),
     clinicId: z.string().uuid().optional(),
     clientId: z.string().uuid().optional(),
-    relationship: z.string().trim().min(1).max(60).optional(),
+    relationship: line(z.string().trim().min(1).max(60), 'Relationship').optional(),
   })
   .refine((v) => (v.role === 'client' || v.role === 'carer') === Boolean(v.clientId), {
     message: 'A client or carer invitation names the client (clientId); a staff invitation does not.',
@@ -32,7 +33,7 @@ export type InvitationInput = z.infer<typeof invitationInputSchema>;
 
 export const acceptInputSchema = z.object({
   token: z.string().min(20).max(200),
-  name: z.string().trim().min(1, 'Enter your name.').max(120).optional(),
+  name: line(z.string().trim().min(1, 'Enter your name.').max(120), 'Name').optional(),
   password: passwordSchema,
 });
 
@@ -167,36 +168,49 @@ export async function previewInvitation(knex: Knex, token: string) {
 
 /**
  * Accepts an invitation: creates the account (or, for an e-mail that already
- * has one, checks its password) and grants the role. Single use.
+ * has one, checks its password — a sign-in attempt under the sign-in limits)
+ * and grants the role. Single use.
  */
 export async function acceptInvitation(
   knex: Knex,
   input: z.infer<typeof acceptInputSchema>,
   meta: RequestMeta,
 ): Promise<{ user: UserRow; session: AuthSessionRow }> {
+  const invalid = () => new HttpError(410, 'invitation_invalid', 'This invitation link has expired, was already used, or was withdrawn. Ask your clinic to send a new one.');
+  const disabled = () => new HttpError(403, 'account_disabled', 'The account for this e-mail is disabled. Contact your clinic.');
+  const invitation = await activeInvitation(knex, input.token);
+  if (!invitation) throw invalid();
+  const existing = await findUserByEmail(knex, invitation.email);
+  if (existing?.disabled_at) throw disabled();
+  // Both slow steps (checking or hashing the password) run before the transaction.
+  const proven = existing?.password_hash
+    ? await checkPassword(knex, { email: invitation.email, password: input.password }, meta, {
+        via: 'invitation',
+        wrongMessage: 'An account with this e-mail already exists: enter its current password to accept the invitation.',
+      })
+    : null;
+  const newHash = proven ? null : await hashPassword(input.password);
   return knex.transaction(async (trx) => {
     const row = await activeInvitation(trx, input.token);
-    if (!row) {
-      throw new HttpError(410, 'invitation_invalid', 'This invitation link has expired, was already used, or was withdrawn. Ask your clinic to send a new one.');
-    }
+    if (!row || row.id !== invitation.id) throw invalid();
     // Claim the invitation first so that two tabs cannot both use it.
     const claimed = await trx('invitations').where({ id: row.id }).whereNull('accepted_at').update({ accepted_at: trx.fn.now() });
     if (claimed !== 1) throw new HttpError(410, 'invitation_invalid', 'This invitation link was already used.');
 
     let user = await findUserByEmail(trx, row.email);
-    if (user?.disabled_at) throw new HttpError(403, 'account_disabled', 'The account for this e-mail is disabled. Contact your clinic.');
+    if (user?.disabled_at) throw disabled();
     if (user?.password_hash) {
-      if (!(await verifyPassword(user.password_hash, input.password))) {
-        throw new HttpError(401, 'bad_credentials', 'An account with this e-mail already exists: enter its current password to accept the invitation.');
+      // The password checked above must still be this account's.
+      if (!proven || proven.id !== user.id || proven.password_hash !== user.password_hash) {
+        throw conflict('account_changed', 'The account for this e-mail changed while the invitation was being accepted. Open the link again.');
       }
     } else {
       const name = input.name ?? row.name;
       if (!name) throw badRequest('Enter your name.', { fields: [{ path: 'name', message: 'Enter your name.' }] });
-      const passwordHash = await hashPassword(input.password);
       if (user) {
-        [user] = await trx<UserRow>('users').where({ id: user.id }).update({ name, password_hash: passwordHash, updated_at: trx.fn.now() }).returning('*');
+        user = await setPassword(trx, user.id, newHash!, { name });
       } else {
-        [user] = await trx<UserRow>('users').insert({ email: row.email, name, password_hash: passwordHash }).returning('*');
+        [user] = await trx<UserRow>('users').insert({ email: row.email, name, password_hash: newHash! }).returning('*');
       }
     }
     const u = user!;

@@ -1,6 +1,7 @@
 // The body a carer or client sends to record a check, and the stored record.
 // Limits are plausibility limits for typing mistakes, not clinical ranges.
 import { z } from 'zod';
+import { instant, paragraph } from '../validation/fields';
 
 export const AD_SYMPTOMS = [
   'pounding_headache',
@@ -71,10 +72,7 @@ const skinEntry = z
 
 const bodyShape = z
   .object({
-    takenAt: z
-      .string()
-      .datetime({ offset: true, message: 'takenAt must be an ISO 8601 date-time with a time zone, e.g. 2026-10-05T09:30:00Z.' })
-      .optional(),
+    takenAt: instant('takenAt', 'takenAt must be an ISO 8601 date-time with a time zone, e.g. 2026-10-05T09:30:00Z.').optional(),
     kind: z.literal('pre_post').default('pre_post'),
     bpBefore: bloodPressure('before the ride').optional(),
     bpDuring: bloodPressure('during the ride').optional(),
@@ -92,10 +90,7 @@ const bodyShape = z
         message: 'Each skin site may be listed once.',
       }),
     effort: wholeNumberIn('Effort', '', 1, 10).optional(),
-    comment: z
-      .string()
-      .trim()
-      .max(COMMENT_MAX, { message: `The comment may be at most ${COMMENT_MAX} characters.` })
+    comment: paragraph(z.string().trim().max(COMMENT_MAX, { message: `The comment may be at most ${COMMENT_MAX} characters.` }), 'Comment')
       .transform((s) => (s === '' ? undefined : s))
       .optional(),
     sessionId: z.string().uuid({ message: 'sessionId must be a session id (a UUID).' }).optional(),

@@ -1,27 +1,46 @@
+import type { Knex } from 'knex';
 import { IANAZone } from 'luxon';
 import { z } from 'zod';
 import { staffClinic } from '../auth/access';
 import { auditAs, type RequestContext } from '../auth/context';
 import type { ClientRow } from '../db/tables';
+import { badRequest } from '../http/errors';
+import { calendarDate, line } from '../validation/fields';
 
 export const clientInputSchema = z
   .object({
-    name: z.string().trim().min(1, 'Name: enter the client’s name.').max(120),
-    timezone: z.string().refine((tz) => IANAZone.isValidZone(tz), 'Time zone: choose a time zone such as Europe/London.'),
-    dateOfBirth: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Date of birth: use the form YYYY-MM-DD.').optional(),
+    name: line(z.string().trim().min(1, 'Name: enter the client’s name.').max(120), 'Name'),
+    timezone: z.string().max(64).refine((tz) => IANAZone.isValidZone(tz), 'Time zone: choose a time zone such as Europe/London.'),
+    dateOfBirth: calendarDate('Date of birth').optional(),
     diagnosis: z.enum(['sci', 'ms', 'stroke', 'cerebral_palsy', 'other']).optional(),
     injuryLevel: z.string().trim().regex(/^[CTLS]\d{1,2}$/i, 'Level: write it like C6, T4 or L1.').optional(),
     aisGrade: z.enum(['A', 'B', 'C', 'D', 'E']).optional(),
     adRisk: z.enum(['at_risk', 'not_at_risk', 'unknown']).optional(),
     bodyMassKg: z.number().min(20, 'Body mass: enter 20–300 kg.').max(300, 'Body mass: enter 20–300 kg.').optional(),
-    programStart: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Program start: use the form YYYY-MM-DD.').optional(),
+    programStart: calendarDate('Program start').optional(),
     primaryTherapistId: z.string().uuid().optional(),
     clinicId: z.string().uuid().optional(),
   })
   .strict();
 
+/** A primary therapist is a therapist or admin of the client's own clinic whose account is active; anything else is a 400 on the field. */
+export async function checkPrimaryTherapist(knex: Knex, clinicId: string, userId: string | null | undefined): Promise<void> {
+  if (!userId) return;
+  const member = await knex('memberships as m')
+    .join('users as u', 'u.id', 'm.user_id')
+    .where({ 'm.clinic_id': clinicId, 'm.user_id': userId })
+    .whereIn('m.role', ['therapist', 'admin'])
+    .whereNull('u.disabled_at')
+    .first('m.id');
+  if (!member) {
+    const message = 'Primary therapist: choose a therapist or administrator of this clinic.';
+    throw badRequest(message, { fields: [{ path: 'primaryTherapistId', message }] });
+  }
+}
+
 export async function createClient(ctx: RequestContext, input: z.infer<typeof clientInputSchema>) {
   const clinicId = staffClinic(ctx.viewer, ['admin', 'therapist'], input.clinicId);
+  await checkPrimaryTherapist(ctx.knex, clinicId, input.primaryTherapistId);
   const [row] = await ctx.knex<ClientRow>('clients')
     .insert({
       clinic_id: clinicId,

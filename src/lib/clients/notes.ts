@@ -1,8 +1,9 @@
 import { z } from 'zod';
 import { accessClient } from '../auth/access';
 import { auditAs, type RequestContext } from '../auth/context';
+import { paragraph } from '../validation/fields';
 
-export const noteInputSchema = z.object({ body: z.string().trim().min(1, 'Write the note first.').max(5000, 'A note is at most 5000 characters.') }).strict();
+export const noteInputSchema = z.object({ body: paragraph(z.string().trim().min(1, 'Write the note first.').max(5000, 'A note is at most 5000 characters.'), 'Note') }).strict();
 
 /** Therapists' dated notes on a client: clinic staff only. */
 export async function listNotes(ctx: RequestContext, clientId: string) {

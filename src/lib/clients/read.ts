@@ -1,10 +1,10 @@
 import { accessClient, visibleClients } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import { auditListed, type RequestContext } from '../auth/context';
 import { clientView } from './view';
 
 export async function listVisibleClients(ctx: RequestContext) {
   const rows = await visibleClients(ctx.knex, ctx.viewer).orderBy('display_name');
-  await auditAs(ctx, { action: 'clients.list', detail: { count: rows.length } });
+  await auditListed(ctx, 'clients.list', rows);
   return rows.map(clientView);
 }
 

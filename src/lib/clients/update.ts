@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { accessClient } from '../auth/access';
 import { auditAs, type RequestContext } from '../auth/context';
-import { clientInputSchema } from './create';
+import { checkPrimaryTherapist, clientInputSchema } from './create';
 import { readClient } from './read';
 
 export const clientUpdateSchema = z
@@ -36,6 +36,7 @@ const COLUMNS: Record<string, string> = {
 
 export async function updateClient(ctx: RequestContext, clientId: string, input: z.infer<typeof clientUpdateSchema>) {
   const client = await accessClient(ctx, clientId, 'manage', 'client.update', { fields: Object.keys(input) });
+  await checkPrimaryTherapist(ctx.knex, client.clinic_id, input.primaryTherapistId);
   const changes = Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined).map(([k, v]) => [COLUMNS[k], k === 'injuryLevel' && typeof v === 'string' ? v.toUpperCase() : v]));
   if (Object.keys(changes).length) await ctx.knex('clients').where({ id: client.id }).update({ ...changes, updated_at: ctx.knex.fn.now() });
   await auditAs(ctx, { action: 'client.changed', clinicId: client.clinic_id, clientId: client.id, detail: { fields: Object.keys(input) } });

@@ -9,15 +9,14 @@ pg.types.setTypeParser(DATE_OID, (value: string) => value);
 
 let instance: Knex | null = null;
 
-/** The process-wide connection pool. */
+/** A connection pool of its own, for a URL other than the app's (the owner's, for migrations). */
+export function connect(url: string, poolMax = 2): Knex {
+  return knexFactory({ client: 'pg', connection: url, pool: { min: 0, max: poolMax } });
+}
+
+/** The process-wide connection pool, as the app's role. */
 export function db(): Knex {
-  if (!instance) {
-    instance = knexFactory({
-      client: 'pg',
-      connection: config().databaseUrl,
-      pool: { min: 0, max: Number(process.env.KINLOOP_DB_POOL ?? 10) },
-    });
-  }
+  instance ??= connect(config().databaseUrl, Number(process.env.KINLOOP_DB_POOL ?? 10));
   return instance;
 }
 

@@ -86,6 +86,8 @@ export interface PasswordResetRow {
   token_hash: string;
   expires_at: Date;
   used_at: Date | null;
+  /** Withdrawn by a newer link or a new password. */
+  revoked_at: Date | null;
   created_at: Date;
 }
 
@@ -105,6 +107,8 @@ export interface SignInAttemptRow {
   email: string;
   ip: string;
   succeeded: boolean;
+  /** The trusted device of the account the attempt came from, if any. */
+  device: string | null;
   attempted_at: Date;
 }
 

@@ -2,15 +2,18 @@
 // invented numbers, dated relative to `now` so that the demo always looks
 // current. Each client rides three times a week from the program start
 // (scenario.ts `startedDaysAgo`) on their own weekdays and at their own time
-// of day; sessions grow from about 25 to 45–55 minutes over the first month
+// of day (in the week the program starts, also on its first days when their
+// weekdays alone would leave that short week missed); sessions grow from about 25 to 45–55 minutes over the first month
 // or so, mean power rises from a few watts towards 15–40 W, and currents
 // settle at about 70 % of the prescribed maximum (300 µs, 35 Hz).
 //
-// Who shows what, with the clinic's default flag thresholds:
+// Who shows what, with the clinic's default flag thresholds (the flags the
+// files leave, whether they arrive week by week or all at once):
 // - jonah, annika: steady progress, every week met; no flags.
 // - mairi: rode nothing in the ISO week three weeks before the current one
-//   (an MS relapse). The weeks since are met, so her streak is broken and the
-//   week shows as missed in her history, but no flag is open now.
+//   (an MS relapse). The weeks since are met, so her streak is broken, the
+//   week shows as missed in her history, and its missed_sessions flag (review)
+//   stays cleared for the therapist: the condition no longer holds.
 // - dev: his latest two sessions at about 42 % below his usual mean power →
 //   power_drop, urgent. The intensity was turned down with it, so his current
 //   per watt holds and power_drop is his only flag.
@@ -28,7 +31,7 @@
 //   arrived, up to the Sunday before last; a few sessions since, too few to
 //   compare power or current with; no flags.
 import { addDays } from '../time/local-date';
-import { localDate } from '../time/iso-week';
+import { isoWeekOf, localDate } from '../time/iso-week';
 import { between, integerBetween, mulberry32, seedOf } from './prng';
 import type { NamedChannel, RideSpec } from './ride-generator';
 import { RIDE_LAYOUTS, type LayoutKey } from './ride-layouts';
@@ -262,11 +265,24 @@ const TWISTS: Record<string, Twist> = {
   noor: (rides, ctx) => rides.filter((r) => r.date <= addDays(ctx.today, -12)),
 };
 
+/**
+ * The usual weekdays from the program start, plus, in the week the program
+ * starts, its first other days when the usual ones leave that week short of
+ * its prorated target (3 × the week's program days / 7, rounded up): the story's
+ * riders meet every week, the first one included.
+ */
+function rideDates(ctx: Context): string[] {
+  const usual = datesOnWeekdays(ctx.programStart, ctx.today, ctx.story.weekdays);
+  const sunday = isoWeekOf(ctx.programStart, ctx.timeZone).sunday;
+  const firstWeek = datesOnWeekdays(ctx.programStart, sunday < ctx.today ? sunday : ctx.today, [1, 2, 3, 4, 5, 6, 7]);
+  const target = Math.ceil((SESSIONS_PER_WEEK * (daysBetween(ctx.programStart, sunday) + 1)) / 7);
+  const extra = firstWeek.filter((d) => !usual.includes(d)).slice(0, Math.max(0, target - usual.filter((d) => d <= sunday).length));
+  return [...usual, ...extra].sort();
+}
+
 function clientRides(ctx: Context): Planned[] {
   const pause = pauseOf(ctx);
-  const dates = datesOnWeekdays(ctx.programStart, ctx.today, ctx.story.weekdays).filter(
-    (d) => pause === null || d < pause.from || d > pause.to,
-  );
+  const dates = rideDates(ctx).filter((d) => pause === null || d < pause.from || d > pause.to);
   if (dates.length === 0) return [];
   const rides = dates.map((date) => plannedRide(ctx, date, daysBetween(dates[0], date))).filter((r) => endMs(r.spec) <= ctx.now.getTime());
   return TWISTS[ctx.key]?.(rides, ctx) ?? rides;

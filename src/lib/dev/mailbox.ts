@@ -1,5 +1,8 @@
 import { readdir, readFile } from 'node:fs/promises';
 import path from 'node:path';
+import { staffClinic } from '../auth/access';
+import type { RequestContext } from '../auth/context';
+import { hashToken } from '../auth/tokens';
 import { config } from '../config';
 
 export interface CapturedEmail {
@@ -13,10 +16,73 @@ export interface CapturedEmail {
   headers: Record<string, string>;
 }
 
-/** The e-mails the local SMTP fake captured, newest first; null when mail goes to a real server. */
-export async function readMailbox(limit = 100): Promise<CapturedEmail[] | null> {
+// How far back one look goes: the newest files are read in batches until
+// enough messages for this admin are found or this many were read.
+const SCAN_LIMIT = 2000;
+const BATCH = 100;
+
+/**
+ * The clinics an admin administers and the e-mail addresses of the people
+ * who belong only to those clinics: staff, clients with an account, and the
+ * clients' active carers. A person who also belongs to another clinic is left
+ * out: their reset link would open that clinic too.
+ */
+async function ownPeople(ctx: RequestContext, clinics: string[]): Promise<Set<string>> {
+  const rows: { email: string }[] = await ctx.knex
+    .with('belongs', (b) =>
+      b
+        .select('user_id', 'clinic_id')
+        .from('memberships')
+        .union((u) => u.select('user_id', 'clinic_id').from('clients').whereNotNull('user_id').whereNull('archived_at'))
+        .union((u) =>
+          u
+            .select('l.carer_user_id as user_id', 'c.clinic_id')
+            .from('carer_links as l')
+            .join('clients as c', 'c.id', 'l.client_id')
+            .where('l.active', true)
+            .whereNull('c.archived_at'),
+        ),
+    )
+    .from('users as u')
+    .join('belongs as b', 'b.user_id', 'u.id')
+    .groupBy('u.id', 'u.email')
+    .havingRaw('bool_and(b.clinic_id = ANY(?::uuid[]))', [clinics])
+    .select(ctx.knex.raw('lower(u.email) as email'));
+  return new Set(rows.map((r) => r.email));
+}
+
+const INVITE_LINK = /\/invite\/([A-Za-z0-9_-]{20,200})/g;
+
+/**
+ * Whose a message is: an invitation belongs to the clinic that sent it (its
+ * link names the invitation); any other message to the people it is addressed
+ * to, and only when every one of them belongs to the admin's clinics alone.
+ */
+async function visibleTo(ctx: RequestContext, clinics: string[], people: Set<string>, messages: CapturedEmail[]): Promise<CapturedEmail[]> {
+  const tokens = new Map<CapturedEmail, string[]>();
+  for (const m of messages) tokens.set(m, [...`${m.text}\n${m.html}`.matchAll(INVITE_LINK)].map((x) => hashToken(x[1])));
+  const hashes = [...new Set([...tokens.values()].flat())];
+  const invitationClinic = new Map<string, string>(
+    hashes.length ? (await ctx.knex('invitations').whereIn('token_hash', hashes).select('token_hash', 'clinic_id')).map((r) => [r.token_hash, r.clinic_id]) : [],
+  );
+  return messages.filter((m) => {
+    const links = tokens.get(m)!;
+    if (links.length) return links.every((h) => clinics.includes(invitationClinic.get(h) ?? ''));
+    return m.to.length > 0 && m.to.every((to) => people.has(to.toLowerCase()));
+  });
+}
+
+/**
+ * The e-mails the local SMTP fake captured that this admin may read, newest
+ * first; null when mail goes to a real server. Only admins read it, and only
+ * what was sent to their own clinics' people: a reset or invitation link of
+ * another clinic would open that clinic's records.
+ */
+export async function readMailbox(ctx: RequestContext, limit = 100): Promise<CapturedEmail[] | null> {
+  staffClinic(ctx.viewer, ['admin']);
   const dir = config().mailboxDir;
   if (!dir) return null;
+  const clinics = ctx.viewer.memberships.filter((m) => m.role === 'admin').map((m) => m.clinicId);
   let names: string[];
   try {
     names = (await readdir(dir)).filter((n) => n.endsWith('.json'));
@@ -24,5 +90,19 @@ export async function readMailbox(limit = 100): Promise<CapturedEmail[] | null> 
     return [];
   }
   names.sort().reverse();
-  return Promise.all(names.slice(0, limit).map(async (n) => JSON.parse(await readFile(path.join(dir, n), 'utf8')) as CapturedEmail));
+  const people = await ownPeople(ctx, clinics);
+  const shown: CapturedEmail[] = [];
+  for (let at = 0; at < Math.min(names.length, SCAN_LIMIT) && shown.length < limit; at += BATCH) {
+    const batch = await Promise.all(
+      names.slice(at, at + BATCH).map(async (n) => {
+        try {
+          return JSON.parse(await readFile(path.join(dir, n), 'utf8')) as CapturedEmail;
+        } catch {
+          return null;
+        }
+      }),
+    );
+    shown.push(...(await visibleTo(ctx, clinics, people, batch.filter((m): m is CapturedEmail => m !== null))));
+  }
+  return shown.slice(0, limit);
 }

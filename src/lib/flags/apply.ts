@@ -13,7 +13,7 @@ export function applyFlagChanges(
   for (const change of changes) {
     if (change.type === 'raise') {
       const { kind, severity, anchor, reason, evidence } = change.condition;
-      raised.push({ id: newId(), kind, severity, state: 'open', anchor, reason, evidence, raisedAt: now, clearedAt: null, snoozedUntil: null });
+      raised.push({ id: newId(), kind, severity, state: 'open', anchor, reason, evidence, raisedAt: now, clearedAt: change.cleared ? now : null, snoozedUntil: null });
       continue;
     }
     const flag = byId.get(change.flagId);

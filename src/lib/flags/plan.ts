@@ -1,22 +1,27 @@
 // Reconciles stored session flags with the data. Rules from the Kinloop
-// supervision issue:
+// supervision issue, and the arrival rule of DEVELOPERS.md ("Flags depend on
+// the data and the clock"):
+// - the flags a client's history leaves are those a planner judging at every
+//   moment, with each file in from the moment its ride started, would have
+//   left: per kind, the latest episode that held at any moment of the program
+//   (judged with the data now in), cleared when it does not hold now. So a
+//   short week made up the week after leaves a cleared flag whether the files
+//   came week by week or in one late batch;
 // - one open flag (open or acknowledged) per kind per client: new evidence
 //   updates it rather than stacking copies;
 // - an acknowledged flag whose new evidence names a new anchor or a worse
 //   severity is reopened;
-// - a resolved flag is never touched; a new episode raises a new flag, but the
-//   episode a therapist resolved is not raised again;
+// - a resolved flag is never touched, and when the latest episode is the one a
+//   therapist resolved, no flag is raised for it again;
 // - snoozed flags are updated like any other; the snooze is left in place;
-// - when the condition no longer holds: `clear` if it held at some moment
-//   while the flag was open (from raisedAt until now, judged with all data we
-//   have now), else `withdraw` — the flag should never have stood.
+// - an open flag for which no episode held at any moment is withdrawn: it
+//   was raised on a partial view (files missing) and should never have stood;
 // - check-derived kinds are left alone.
-// planFlagChanges is a pure function of (stored flags, data). Judging "held"
-// over the flag's open life, rather than at its anchor alone, is what keeps a
-// batch's result independent of the order its files are parsed in: a flag
-// raised mid-batch on a partial view, whose condition does not hold with the
-// whole batch, is withdrawn instead of lingering as cleared.
+// planFlagChanges is a pure function of (stored flags, data, now); what it
+// leaves live depends on the stored flags only through resolved episodes, so
+// neither the order nor the time at which files arrived changes the result.
 import { latestHeldBetween, assessAsOf } from './evaluate';
+import { startOfLocalDay } from '../time/local-date';
 import { prepareFlagData, type FlagData } from './flag-data';
 import {
   FLAG_SEVERITIES,
@@ -58,6 +63,10 @@ function canonicalJson(value: unknown): string {
 function planKind(kind: SessionFlagKind, flags: ExistingFlag[], data: FlagData): FlagChange[] {
   const ofKind = flags.filter((f) => f.kind === kind);
   const current = assessAsOf(kind, data, data.nowMs);
+  const latest = current.condition ?? latestHeldInProgram(kind, data);
+  const resolvedEpisode = latest !== null && ofKind.some((f) => f.state === 'resolved' && f.anchor === latest.anchor);
+  const target = resolvedEpisode ? null : latest;
+  const holdsNow = target !== null && target === current.condition;
   // Should several be open (the store is meant to prevent it), the earliest
   // raised is the one kept up to date.
   const open = ofKind
@@ -65,15 +74,10 @@ function planKind(kind: SessionFlagKind, flags: ExistingFlag[], data: FlagData):
     .sort((a, b) => Date.parse(a.raisedAt) - Date.parse(b.raisedAt) || a.id.localeCompare(b.id))[0];
 
   if (!open) {
-    const resolvedEpisode = ofKind.some((f) => f.state === 'resolved' && f.anchor === current.condition?.anchor);
-    return current.condition && !resolvedEpisode ? [{ type: 'raise', condition: current.condition }] : [];
+    if (!target) return [];
+    return [holdsNow ? { type: 'raise', condition: target } : { type: 'raise', condition: target, cleared: { why: `Cleared: ${current.status}.` } }];
   }
-  if (current.condition) {
-    if (sameRecord(open, current.condition) && open.clearedAt === null) return [];
-    return [{ type: 'update', flagId: open.id, condition: current.condition, reopen: shouldReopen(open, current.condition) }];
-  }
-  const held = latestHeldBetween(kind, data, Date.parse(open.raisedAt), data.nowMs);
-  if (!held) {
+  if (!target) {
     const atRaise = assessAsOf(kind, data, Math.min(Date.parse(open.raisedAt), data.nowMs));
     return [
       {
@@ -83,16 +87,19 @@ function planKind(kind: SessionFlagKind, flags: ExistingFlag[], data: FlagData):
       },
     ];
   }
-  if (open.clearedAt !== null && sameRecord(open, held)) return [];
-  return [
-    {
-      type: 'clear',
-      flagId: open.id,
-      why: `Cleared: ${current.status}.`,
-      condition: held,
-      reopen: shouldReopen(open, held),
-    },
-  ];
+  if (holdsNow) {
+    if (sameRecord(open, target) && open.clearedAt === null) return [];
+    return [{ type: 'update', flagId: open.id, condition: target, reopen: shouldReopen(open, target) }];
+  }
+  if (open.clearedAt !== null && sameRecord(open, target)) return [];
+  return [{ type: 'clear', flagId: open.id, why: `Cleared: ${current.status}.`, condition: target, reopen: shouldReopen(open, target) }];
+}
+
+/** The latest episode of `kind` that held at any moment from the program start until now, or null. */
+function latestHeldInProgram(kind: SessionFlagKind, data: FlagData): FlagCondition | null {
+  const start = data.calendar.timeline.programStart;
+  if (start === null) return null;
+  return latestHeldBetween(kind, data, Date.parse(startOfLocalDay(start, data.timeZone)), data.nowMs);
 }
 
 export function planFlagChanges(existing: ExistingFlag[], input: FlagInput): FlagChange[] {

@@ -126,7 +126,8 @@ export interface ExistingFlag {
 
 /**
  * What to do with the stored flags. Applying:
- * - raise: a new flag, state open, raisedAt = input.now;
+ * - raise: a new flag, state open, raisedAt = input.now; with `cleared`, an
+ *   episode that held and no longer does (clearedAt = input.now);
  * - update: replace severity, anchor, reason, evidence; clearedAt = null;
  *   state becomes open when `reopen`; snoozedUntil is left as it is;
  * - withdraw: state withdrawn;
@@ -135,7 +136,7 @@ export interface ExistingFlag {
  *   state becomes open when `reopen`.
  */
 export type FlagChange =
-  | { type: 'raise'; condition: FlagCondition }
+  | { type: 'raise'; condition: FlagCondition; cleared?: { why: string } }
   | { type: 'update'; flagId: string; condition: FlagCondition; reopen: boolean }
   | { type: 'withdraw'; flagId: string; why: string }
   | { type: 'clear'; flagId: string; why: string; condition: FlagCondition; reopen: boolean };

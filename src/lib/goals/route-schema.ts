@@ -1,10 +1,11 @@
 // A custom route a therapist or rider draws. The server assigns the id.
 import { z } from 'zod';
 import { routeLengthM } from './route';
+import { line } from '../validation/fields';
 
 const point = z
   .object({
-    name: z.string().trim().max(80, { message: 'A point name may be at most 80 characters.' }).default(''),
+    name: line(z.string().trim().max(80, { message: 'A point name may be at most 80 characters.' }), 'Point name').default(''),
     lat: z
       .number({ invalid_type_error: 'Latitude must be a number.' })
       .min(-90, { message: 'Latitude must be between -90 and 90.' })
@@ -20,11 +21,14 @@ const point = z
 
 export const customRouteSchema = z
   .object({
-    name: z
-      .string({ required_error: 'The route needs a name.' })
-      .trim()
-      .min(1, { message: 'The route needs a name.' })
-      .max(80, { message: 'A route name may be at most 80 characters.' }),
+    name: line(
+      z
+        .string({ required_error: 'The route needs a name.' })
+        .trim()
+        .min(1, { message: 'The route needs a name.' })
+        .max(80, { message: 'A route name may be at most 80 characters.' }),
+      'Route name',
+    ),
     points: z
       .array(point)
       .min(2, { message: 'A route needs at least 2 points.' })

@@ -1,8 +1,8 @@
 import { z } from 'zod';
-import { accessClient, canManageClient } from '../auth/access';
+import { accessClient, accessClientRecord, canManageClient } from '../auth/access';
 import { auditAs, type RequestContext } from '../auth/context';
 import type { UploadRow } from '../db/tables';
-import { badRequest, forbidden, notFound } from '../http/errors';
+import { badRequest, forbidden } from '../http/errors';
 import { getObjectStream } from '../storage/s3';
 import { receiveRideFiles } from './receive';
 import { enqueueParse, registerUploads } from './register';
@@ -100,9 +100,8 @@ async function waitForOutcome(ctx: RequestContext, rows: UploadRow[], waitMs: nu
 }
 
 async function uploadFor(ctx: RequestContext, id: string, need: 'read' | 'manage', action: string) {
-  const row = uuid.safeParse(id).success ? await ctx.knex<UploadRow>('uploads').where({ id }).first() : undefined;
-  if (!row) throw notFound('That upload');
-  await accessClient(ctx, row.client_id, need, action, { uploadId: id });
+  const found = uuid.safeParse(id).success ? await ctx.knex<UploadRow>('uploads').where({ id }).first() : undefined;
+  const { row } = await accessClientRecord(ctx, found, { what: 'That upload', type: 'upload', id }, need, action, { uploadId: id });
   return row;
 }
 

@@ -8,10 +8,12 @@ import { therapistsOf } from './recipients';
 
 /**
  * The immediate e-mail for an urgent flag, to the client's therapists. Queued
- * once per flag, severity and episode, so re-evaluations never resend it.
+ * once per flag and episode, so re-evaluations never resend it; a flag whose
+ * condition has already cleared (files that came in late) is history for the
+ * triage list, not an alert.
  */
 export async function alertUrgentFlag(knex: Knex, flag: FlagRow): Promise<number> {
-  if (flag.severity !== 'urgent' || flag.state !== 'open') return 0;
+  if (flag.severity !== 'urgent' || flag.state !== 'open' || flag.cleared_at !== null) return 0;
   const client = await knex<ClientRow>('clients').where({ id: flag.client_id }).first();
   if (!client) return 0;
   let queued = 0;

@@ -53,8 +53,12 @@ export async function savePreferences(ctx: RequestContext, input: z.infer<typeof
   return view(row, ctx);
 }
 
+// Tokens are 24 random bytes in base64url; anything else in the link names no one.
+const TOKEN = /^[A-Za-z0-9_-]{16,64}$/;
+
 /** The unsubscribe link's action: works without signing in, with the token from the e-mail. */
 export async function unsubscribe(knex: Knex, token: string, topic: Topic): Promise<{ email: string } | null> {
+  if (!TOKEN.test(token)) return null;
   const row = await knex('notification_preferences as p').join('users as u', 'u.id', 'p.user_id').where('p.unsubscribe_token', token).first('p.user_id', 'u.email');
   if (!row) return null;
   await knex('notification_preferences').where({ user_id: row.user_id }).update({ [topic]: false, updated_at: knex.fn.now() });
@@ -63,5 +67,6 @@ export async function unsubscribe(knex: Knex, token: string, topic: Topic): Prom
 }
 
 export async function tokenOwner(knex: Knex, token: string) {
+  if (!TOKEN.test(token)) return undefined;
   return knex('notification_preferences as p').join('users as u', 'u.id', 'p.user_id').where('p.unsubscribe_token', token).first('u.email', 'p.*');
 }

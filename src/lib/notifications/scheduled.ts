@@ -23,8 +23,20 @@ export const DIGEST_HOUR = 7;
 export const REMINDER_HOUR = 18;
 export const WEEKLY_HOUR = 8;
 
-export async function sendScheduledEmails(knex: Knex, now = new Date()): Promise<{ digests: number; reminders: number; weekly: number }> {
-  const clients = await knex<ClientRow>('clients').whereNull('archived_at');
+/**
+ * Queues what is due at `now`, for every clinic or for the clinics named, and
+ * says how many of each it queued (not counting those queued before).
+ */
+export async function sendScheduledEmails(
+  knex: Knex,
+  now = new Date(),
+  only: { clinicIds?: string[] } = {},
+): Promise<{ digests: number; reminders: number; weekly: number }> {
+  const clients = await knex<ClientRow>('clients')
+    .whereNull('archived_at')
+    .modify((q) => {
+      if (only.clinicIds) q.whereIn('clinic_id', only.clinicIds);
+    });
   return { digests: await digests(knex, clients, now), reminders: await reminders(knex, clients, now), weekly: await weeklySummaries(knex, clients, now) };
 }
 

@@ -7,12 +7,13 @@ import { readGoalFor } from './goal-progress';
 import { builtinRoute } from '../goals/builtin-routes';
 import { customRouteSchema } from '../goals/route-schema';
 import { badRequest } from '../http/errors';
+import { calendarDate, line } from '../validation/fields';
 
 export const goalInputSchema = z
   .object({
-    routeId: z.string().max(60).optional(),
+    routeId: line(z.string().max(60), 'Route').optional(),
     customRoute: customRouteSchema.optional(),
-    countFrom: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Count rides from: use the form YYYY-MM-DD.').optional(),
+    countFrom: calendarDate('Count rides from').optional(),
   })
   .strict()
   .refine((g) => Boolean(g.routeId) !== Boolean(g.customRoute), { message: 'Choose one of the routes, or enter your own — not both.', path: ['routeId'] });

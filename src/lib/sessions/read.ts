@@ -1,15 +1,15 @@
 import { z } from 'zod';
-import { accessClient } from '../auth/access';
+import { accessClient, accessClientRecord } from '../auth/access';
 import type { RequestContext } from '../auth/context';
 import type { RideRow } from '../db/tables';
-import { notFound } from '../http/errors';
 import { decodeSeries } from '../rides/series-codec';
 import { chartSeries } from './chart-series';
 import { sessionListItem } from './view';
+import { instant } from '../validation/fields';
 
 export const sessionsQuerySchema = z.object({
   limit: z.coerce.number().int().min(1).max(200).default(50),
-  before: z.string().datetime({ offset: true }).optional(),
+  before: instant('before').optional(),
 });
 
 /** A client's sessions, newest first; `nextBefore` pages on. */
@@ -28,9 +28,8 @@ export async function listSessions(ctx: RequestContext, clientId: string, query:
 export const sessionQuerySchema = z.object({ points: z.coerce.number().int().min(10).max(20_000).optional() });
 
 export async function readSession(ctx: RequestContext, id: string, points: number | null) {
-  const row = z.string().uuid().safeParse(id).success ? await ctx.knex<RideRow>('rides').where({ id }).first() : undefined;
-  if (!row) throw notFound('That session');
-  await accessClient(ctx, row.client_id, 'read', 'session.view', { sessionId: id });
+  const found = z.string().uuid().safeParse(id).success ? await ctx.knex<RideRow>('rides').where({ id }).first() : undefined;
+  const { row } = await accessClientRecord(ctx, found, { what: 'That session', type: 'session', id }, 'read', 'session.view', { sessionId: id });
   const stored = await ctx.knex('ride_series').where({ ride_id: id }).first('data');
   return { ...sessionListItem(row), series: stored ? chartSeries(decodeSeries(stored.data), points) : null };
 }

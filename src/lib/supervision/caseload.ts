@@ -1,4 +1,4 @@
-import { auditAs, type RequestContext } from '../auth/context';
+import { auditListed, type RequestContext } from '../auth/context';
 import type { ClientRow, FlagRow } from '../db/tables';
 import { forbidden } from '../http/errors';
 import { FLAG_SEVERITIES } from '../flags';
@@ -30,7 +30,7 @@ export async function caseload(ctx: RequestContext, { onlyFlagged }: { onlyFlagg
     })
     .orderBy('display_name');
   const figures = await overviews(ctx.knex, clients, now);
-  await auditAs(ctx, { action: onlyFlagged ? 'triage.view' : 'caseload.view', detail: { clients: clients.length } });
+  await auditListed(ctx, onlyFlagged ? 'triage.view' : 'caseload.view', clients);
   const rows = clients.map((c) => {
     const own = flags
       .filter((f) => f.client_id === c.id)

@@ -1,8 +1,8 @@
-import { DateTime } from 'luxon';
 import { db } from '../db/knex';
 import { onRidesChanged } from '../ingest/ride-events';
 import { QUEUES, queue, sendJob, workQueue } from '../jobs/queue';
 import { evaluateClientFlags } from './flag-store';
+import { clientsWithNewDay } from './new-day';
 
 
 // Files arrive in batches (a fortnight at once, in any order). Evaluating a
@@ -28,8 +28,6 @@ export async function registerFlagJobs(): Promise<void> {
   await (await queue()).schedule(QUEUES.sweepFlags, '5 * * * *');
   await workQueue(QUEUES.sweepFlags, async () => {
     const clients = await db()('clients').whereNull('archived_at').select('id', 'time_zone');
-    for (const c of clients) {
-      if (DateTime.now().setZone(c.time_zone).hour === 0) await scheduleFlagEvaluation(c.id, 0);
-    }
+    for (const c of clientsWithNewDay(clients, new Date())) await scheduleFlagEvaluation(c.id, 0);
   });
 }

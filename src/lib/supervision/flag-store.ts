@@ -41,9 +41,10 @@ export async function evaluateClientFlags(knex: Knex, clientId: string, now = ne
     for (const change of planned) {
       if (change.type === 'raise') {
         const [row] = await trx<FlagRow>('flags')
-          .insert({ client_id: clientId, clinic_id: client.clinic_id, kind: change.condition.kind, state: 'open', raised_at: now, updated_at: now, ...conditionColumns(change.condition) } as never)
+          .insert({ client_id: clientId, clinic_id: client.clinic_id, kind: change.condition.kind, state: 'open', raised_at: now, updated_at: now, cleared_at: change.cleared ? now : null, ...conditionColumns(change.condition) } as never)
           .returning('*');
         await event(trx, row.id, 'raised', { severity: row.severity, anchor: row.anchor, reason: row.reason });
+        if (change.cleared) await event(trx, row.id, 'cleared', { severity: row.severity, anchor: row.anchor, reason: row.reason, why: change.cleared.why });
         touched.push({ row, type: 'raise' });
       } else if (change.type === 'withdraw') {
         const [row] = await trx<FlagRow>('flags').where({ id: change.flagId }).update({ state: 'withdrawn', closed_at: now, updated_at: now }).returning('*');

@@ -1,16 +1,17 @@
 import type { Knex } from 'knex';
 import { DateTime } from 'luxon';
 import { z } from 'zod';
-import { accessClient } from '../auth/access';
+import { accessClient, accessClientRecord } from '../auth/access';
 import { auditAs, type RequestContext } from '../auth/context';
 import type { FlagEventRow, FlagRow } from '../db/tables';
-import { badRequest, notFound } from '../http/errors';
+import { badRequest } from '../http/errors';
+import { calendarDate, paragraph } from '../validation/fields';
 
 export const flagActionSchema = z
   .object({
     action: z.enum(['acknowledge', 'resolve', 'snooze']),
-    note: z.string().trim().max(2000, 'A note is at most 2000 characters.').optional(),
-    until: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Snooze until: use the form YYYY-MM-DD.').optional(),
+    note: paragraph(z.string().trim().max(2000, 'A note is at most 2000 characters.'), 'Note').optional(),
+    until: calendarDate('Snooze until').optional(),
   })
   .strict()
   .refine((a) => a.action !== 'snooze' || a.until, { message: 'Snooze until: choose the date the flag should come back.', path: ['until'] });
@@ -34,9 +35,8 @@ export type FlagView = ReturnType<typeof flagView>;
 
 /** Acknowledge (seen, still live), resolve (closed) or snooze (hidden from triage until a date), with an optional note. */
 export async function actOnFlag(ctx: RequestContext, flagId: string, input: z.infer<typeof flagActionSchema>) {
-  const flag = z.string().uuid().safeParse(flagId).success ? await ctx.knex<FlagRow>('flags').where({ id: flagId }).first() : undefined;
-  if (!flag) throw notFound('That flag');
-  const client = await accessClient(ctx, flag.client_id, 'manage', 'flag.act', { flagId, action: input.action });
+  const found = z.string().uuid().safeParse(flagId).success ? await ctx.knex<FlagRow>('flags').where({ id: flagId }).first() : undefined;
+  const { row: flag, client } = await accessClientRecord(ctx, found, { what: 'That flag', type: 'flag', id: flagId }, 'manage', 'flag.act', { flagId, action: input.action });
   if (flag.state === 'resolved' || flag.state === 'withdrawn') throw badRequest(`This flag is ${flag.state} already.`);
   const today = DateTime.now().setZone(client.time_zone).toISODate()!;
   if (input.action === 'snooze' && input.until! <= today) {

@@ -5,10 +5,10 @@ import { auditAs, type RequestContext } from '../auth/context';
 import type { PauseRow } from '../db/tables';
 import { badRequest, notFound } from '../http/errors';
 import { scheduleFlagEvaluation } from './flag-jobs';
+import { calendarDate, line } from '../validation/fields';
 
-const date = (label: string) => z.string().regex(/^\d{4}-\d{2}-\d{2}$/, `${label}: use the form YYYY-MM-DD.`);
 export const pauseInputSchema = z
-  .object({ from: date('From'), to: date('To'), reason: z.string().trim().min(1, 'Reason: say why the program pauses (for example: hospital stay).').max(200) })
+  .object({ from: calendarDate('From'), to: calendarDate('To'), reason: line(z.string().trim().min(1, 'Reason: say why the program pauses (for example: hospital stay).').max(200), 'Reason') })
   .strict()
   .refine((p) => p.to >= p.from, { message: 'To: the pause must end on or after the day it starts.', path: ['to'] })
   .refine((p) => DateTime.fromISO(p.to).diff(DateTime.fromISO(p.from), 'days').days <= 366, { message: 'To: a pause lasts at most a year; add another one after it if needed.', path: ['to'] });

@@ -5,6 +5,7 @@
 // resistance limits are Kinloop's own plausibility bounds.
 import { z } from 'zod';
 import { NAMED_CHANNELS, NUMBERED_CHANNELS } from '../rides/types';
+import { calendarDate, paragraph } from '../validation/fields';
 
 const SOURCE = 'the range reported for FES cycling programmes (J NeuroEng Rehabil 2021 review)';
 const within = (label: string, min: number, max: number, unit: string, source = SOURCE) =>
@@ -40,8 +41,8 @@ export const prescriptionInputSchema = z
     cadenceToleranceRpm: within('Cadence tolerance', 1, 15, 'rpm', OWN).optional(),
     resistance: within('Resistance level', 0, 10, '', OWN).optional(),
     channels: z.record(z.enum([...NAMED_CHANNELS, ...NUMBERED_CHANNELS]), channelLimits).optional(),
-    notes: z.string().trim().max(2000, 'Notes: at most 2000 characters.').optional(),
-    effectiveFrom: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Effective date: use the form YYYY-MM-DD.'),
+    notes: paragraph(z.string().trim().max(2000, 'Notes: at most 2000 characters.'), 'Notes').optional(),
+    effectiveFrom: calendarDate('Effective date'),
   })
   .strict()
   .refine((p) => p.warmupMinutes === undefined || p.warmupMinutes < p.minutesPerSession, {

@@ -3,6 +3,23 @@ import { auditAs, type RequestContext } from '../auth/context';
 import { DEFAULT_FLAG_THRESHOLDS, flagThresholdsSchema, type FlagThresholds } from '../flags';
 import { scheduleFlagEvaluation } from './flag-jobs';
 
+// Kinloop's plausibility limits for the thresholds that have no upper bound of
+// their own: a value beyond them is a typing mistake, and an unbounded one
+// (1e308 days) would break the date arithmetic of every later evaluation.
+const PLAUSIBLE: [key: 'missedNoSessionDays' | 'baselineSessions' | 'baselineMinSessions' | 'currentRiseReviewPct', max: number, words: string][] = [
+  ['missedNoSessionDays', 365, 'Days without a session: at most 365'],
+  ['baselineSessions', 100, 'Baseline sessions: at most 100'],
+  ['baselineMinSessions', 100, 'Fewest baseline sessions: at most 100'],
+  ['currentRiseReviewPct', 1000, 'Current rise for review: at most 1000 %'],
+];
+
+/** The body of PUT /api/clinic/settings: the thresholds, each within a plausible range. */
+export const clinicSettingsInputSchema = flagThresholdsSchema.superRefine((t, ctx) => {
+  for (const [key, max, words] of PLAUSIBLE) {
+    if (t[key] > max) ctx.addIssue({ code: 'custom', path: [key], message: `${words} (Kinloop’s plausibility limit).` });
+  }
+});
+
 export async function readClinicSettings(ctx: RequestContext, clinicId?: string) {
   const id = staffClinic(ctx.viewer, ['admin', 'therapist'], clinicId);
   const clinic = await ctx.knex('clinics').where({ id }).first('id', 'name', 'time_zone', 'flag_thresholds');

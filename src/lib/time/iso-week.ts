@@ -2,7 +2,7 @@
 // dates in a client's time zone. A session belongs to the week of its local
 // start date, so every week computation starts from the local calendar date.
 import { DateTime } from 'luxon';
-import { addDays, isLocalDate, parseLocalDate } from './local-date';
+import { addDays, daysFrom, isLocalDate, isoWeekday } from './local-date';
 
 export interface IsoWeek {
   /** e.g. '2026-W41' */
@@ -40,17 +40,19 @@ export function isoWeekOf(instantOrLocalDate: string | Date, timeZone: string): 
   return weekOfLocalDate(date);
 }
 
+// ISO 8601: a week belongs to the year of its Thursday and is numbered from
+// that year's first Thursday.
 function weekOfLocalDate(date: string): IsoWeek {
-  const day = parseLocalDate(date);
-  const monday = day.minus({ days: day.weekday - 1 });
-  const year = day.weekYear;
-  const week = day.weekNumber;
+  const monday = addDays(date, 1 - isoWeekday(date));
+  const thursday = addDays(monday, 3);
+  const year = Number(thursday.slice(0, 4));
+  const week = Math.floor(daysFrom(`${thursday.slice(0, 4)}-01-01`, thursday) / 7) + 1;
   return {
-    isoWeek: `${year}-W${String(week).padStart(2, '0')}`,
+    isoWeek: `${thursday.slice(0, 4)}-W${String(week).padStart(2, '0')}`,
     year,
     week,
-    monday: monday.toISODate()!,
-    sunday: monday.plus({ days: 6 }).toISODate()!,
+    monday,
+    sunday: addDays(monday, 6),
   };
 }
 
@@ -58,13 +60,11 @@ function weekOfLocalDate(date: string): IsoWeek {
 export function parseIsoWeek(key: string): IsoWeek {
   const match = WEEK_KEY.exec(key);
   if (!match) throw new RangeError(`Not an ISO week (YYYY-Www): ${key}`);
-  const year = Number(match[1]);
-  const week = Number(match[2]);
-  const monday = DateTime.fromObject({ weekYear: year, weekNumber: week, weekday: 1 }, { zone: 'utc' });
-  if (!monday.isValid || week < 1 || week > monday.weeksInWeekYear) {
-    throw new RangeError(`Not an ISO week (YYYY-Www): ${key}`);
-  }
-  return weekOfLocalDate(monday.toISODate()!);
+  // Week 1 is the week of 4 January.
+  const firstMonday = weekOfLocalDate(`${match[1]}-01-04`).monday;
+  const week = weekOfLocalDate(addDays(firstMonday, (Number(match[2]) - 1) * 7));
+  if (week.isoWeek !== key) throw new RangeError(`Not an ISO week (YYYY-Www): ${key}`);
+  return week;
 }
 
 function toWeek(week: IsoWeek | string): IsoWeek {

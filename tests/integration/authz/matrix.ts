@@ -20,16 +20,18 @@ async function profileOf(w: World): Promise<string> {
   return row.id;
 }
 const profileBody = { name: 'Matrix rig', columns: { Zeit: { field: 'time' }, Leistung: { field: 'power', unit: 'W' } } };
-const read = (ok: number): Record<Role, number> => ({ anonymous: 401, client: ok, carer: ok, therapist: ok, admin: ok, otherTherapist: 404 });
-const manage = (ok: number): Record<Role, number> => ({ anonymous: 401, client: 403, carer: 403, therapist: ok, admin: ok, otherTherapist: 404 });
-const staff = (ok: number): Record<Role, number> => ({ anonymous: 401, client: 403, carer: 403, therapist: ok, admin: ok, otherTherapist: ok });
-const staffOfClinic = (ok: number): Record<Role, number> => ({ anonymous: 401, client: 404, carer: 404, therapist: 403, admin: ok, otherTherapist: 404 });
+const read = (ok: number): Record<Role, number> => ({ anonymous: 401, client: ok, carer: ok, therapist: ok, admin: ok, otherTherapist: 404, otherAdmin: 404 });
+const manage = (ok: number): Record<Role, number> => ({ anonymous: 401, client: 403, carer: 403, therapist: ok, admin: ok, otherTherapist: 404, otherAdmin: 404 });
+const staff = (ok: number): Record<Role, number> => ({ anonymous: 401, client: 403, carer: 403, therapist: ok, admin: ok, otherTherapist: ok, otherAdmin: ok });
+const staffOfClinic = (ok: number): Record<Role, number> => ({ anonymous: 401, client: 404, carer: 404, therapist: 403, admin: ok, otherTherapist: 404, otherAdmin: 404 });
 
 /**
  * The expected status of every API route for every kind of caller. A route
  * added under src/pages/api without an entry here fails the matrix test.
  * `subject` is the client that the client, carer, therapist and admin of the
- * world are all connected to; `otherTherapist` works at another clinic.
+ * world are all connected to; `otherTherapist` and `otherAdmin` work at
+ * another clinic. Whatever the status, the test also reads every answer for
+ * the world's secrets the caller may not see (see `Secret` in world.ts).
  */
 export interface MatrixEntry {
   request: (w: World, role: Role) => Promise<{ path: string; body?: unknown }> | { path: string; body?: unknown };
@@ -38,9 +40,10 @@ export interface MatrixEntry {
   freshSession?: boolean;
 }
 
-const all = (status: number): Record<Role, number> => ({ anonymous: status, client: status, carer: status, therapist: status, admin: status, otherTherapist: status });
+const all = (status: number): Record<Role, number> => ({ anonymous: status, client: status, carer: status, therapist: status, admin: status, otherTherapist: status, otherAdmin: status });
 const signedIn = (status: number): Record<Role, number> => ({ ...all(status), anonymous: 401 });
-const adminOnly = (ok: number): Record<Role, number> => ({ anonymous: 401, client: 403, carer: 403, therapist: 403, admin: ok, otherTherapist: 403 });
+/** For an admin of either clinic, in their own clinic. */
+const adminOnly = (ok: number): Record<Role, number> => ({ anonymous: 401, client: 403, carer: 403, therapist: 403, admin: ok, otherTherapist: 403, otherAdmin: ok });
 
 export const MATRIX: Record<string, MatrixEntry> = {
   'GET /api/health': { request: () => ({ path: '/api/health' }), expect: all(200) },
@@ -56,15 +59,15 @@ export const MATRIX: Record<string, MatrixEntry> = {
   'GET /api/clients': { request: () => ({ path: '/api/clients' }), expect: signedIn(200) },
   'GET /api/clients/[id]': {
     request: (w) => ({ path: `/api/clients/${w.clientId}` }),
-    expect: { anonymous: 401, client: 200, carer: 200, therapist: 200, admin: 200, otherTherapist: 404 },
+    expect: read(200),
   },
   'GET /api/invitations': {
     request: () => ({ path: '/api/invitations' }),
-    expect: { anonymous: 401, client: 403, carer: 403, therapist: 200, admin: 200, otherTherapist: 200 },
+    expect: staff(200),
   },
   'POST /api/invitations': {
     request: (w) => ({ path: '/api/invitations', body: { email: `carer-${randomUUID().slice(0, 8)}@example.test`, role: 'carer', clientId: w.clientId } }),
-    expect: { anonymous: 401, client: 403, carer: 403, therapist: 201, admin: 201, otherTherapist: 404 },
+    expect: manage(201),
   },
   'POST /api/invitations/[id]/revoke': {
     request: async (w) => {
@@ -73,12 +76,13 @@ export const MATRIX: Record<string, MatrixEntry> = {
         .returning('id');
       return { path: `/api/invitations/${row.id}/revoke` };
     },
-    expect: { anonymous: 401, client: 404, carer: 404, therapist: 200, admin: 200, otherTherapist: 404 },
+    expect: { anonymous: 401, client: 404, carer: 404, therapist: 200, admin: 200, otherTherapist: 404, otherAdmin: 404 },
   },
   'GET /api/staff': { request: () => ({ path: '/api/staff' }), expect: adminOnly(200) },
   'PATCH /api/staff/[userId]': {
     request: async (w) => ({ path: `/api/staff/${(await w.addStaff('therapist')).id}`, body: { role: 'admin' } }),
-    expect: adminOnly(200),
+    // Clinic B's admin changes staff of clinic B only: clinic A's therapist is not found there.
+    expect: { ...adminOnly(200), otherAdmin: 404 },
   },
   'GET /api/audit': { request: () => ({ path: '/api/audit' }), expect: adminOnly(200) },
   'GET /api/dev/mailbox': { request: () => ({ path: '/api/dev/mailbox' }), expect: adminOnly(200) },
@@ -91,11 +95,11 @@ export const MATRIX: Record<string, MatrixEntry> = {
   'GET /api/uploads/[id]': { request: async (w) => ({ path: `/api/uploads/${(await carerRide(w)).uploadId}` }), expect: read(200) },
   'GET /api/uploads/[id]/raw': {
     request: async (w) => ({ path: `/api/uploads/${(await carerRide(w)).uploadId}/raw` }),
-    expect: { anonymous: 401, client: 403, carer: 200, therapist: 200, admin: 200, otherTherapist: 404 },
+    expect: { anonymous: 401, client: 403, carer: 200, therapist: 200, admin: 200, otherTherapist: 404, otherAdmin: 404 },
   },
   'POST /api/uploads/[id]/reprocess': {
     request: async (w) => ({ path: `/api/uploads/${(await carerRide(w)).uploadId}/reprocess` }),
-    expect: { anonymous: 401, client: 403, carer: 403, therapist: 202, admin: 202, otherTherapist: 404 },
+    expect: manage(202),
   },
   'GET /api/clients/[id]/sessions': { request: (w) => ({ path: `/api/clients/${w.clientId}/sessions` }), expect: read(200) },
   'GET /api/sessions/[id]': { request: async (w) => ({ path: `/api/sessions/${(await carerRide(w)).sessionId}?points=100` }), expect: read(200) },
@@ -109,7 +113,7 @@ export const MATRIX: Record<string, MatrixEntry> = {
   },
   'POST /api/clients': {
     request: () => ({ path: '/api/clients', body: { name: `Matrix ${randomUUID().slice(0, 6)}`, timezone: 'Europe/London' } }),
-    expect: { anonymous: 401, client: 403, carer: 403, therapist: 201, admin: 201, otherTherapist: 201 },
+    expect: staff(201),
   },
   'GET /api/clients/[id]/prescription': { request: (w) => ({ path: `/api/clients/${w.clientId}/prescription` }), expect: read(200) },
   'PUT /api/clients/[id]/prescription': {
@@ -159,7 +163,7 @@ export const MATRIX: Record<string, MatrixEntry> = {
   'POST /api/clients/[id]/checks': { request: (w) => ({ path: `/api/clients/${w.clientId}/checks`, body: { effort: 5, comment: 'Felt fine' } }), expect: read(201) },
   'GET /api/me/notifications': { request: () => ({ path: '/api/me/notifications' }), expect: signedIn(200) },
   'PUT /api/me/notifications': { request: () => ({ path: '/api/me/notifications', body: { reminders: true, weeklySummary: true, dailyDigest: true, urgentAlerts: true } }), expect: signedIn(200) },
-  'GET /api/devices': { request: () => ({ path: '/api/devices' }), expect: { anonymous: 401, client: 403, carer: 403, therapist: 200, admin: 200, otherTherapist: 200 } },
+  'GET /api/devices': { request: () => ({ path: '/api/devices' }), expect: staff(200) },
   'POST /api/devices': { request: () => ({ path: '/api/devices', body: { serial: `SN-${randomUUID().slice(0, 8)}` } }), expect: adminOnly(201) },
 
   // Evidence out: the report PDF, exports, monitoring time, the clinic overview (issue 13).

@@ -19,3 +19,20 @@ export function discoverApiRoutes(dir = API_DIR): string[] {
   }
   return out.sort();
 }
+
+const PAGES_DIR = path.resolve('src/pages');
+
+/** Every page a browser opens with GET, as "/path/[param]", read from src/pages outside the API. */
+export function discoverPages(dir = PAGES_DIR): string[] {
+  const out: string[] = [];
+  for (const name of readdirSync(dir)) {
+    const file = path.join(dir, name);
+    if (statSync(file).isDirectory()) {
+      if (file !== API_DIR) out.push(...discoverPages(file));
+      continue;
+    }
+    const rel = '/' + path.relative(PAGES_DIR, file).replace(/\\/g, '/').replace(/\.(astro|ts|js)$/, '').replace(/(^|\/)index$/, '');
+    if (name.endsWith('.astro') || /export const GET\b/.test(readFileSync(file, 'utf8'))) out.push(rel === '' ? '/' : rel);
+  }
+  return out.sort();
+}

@@ -131,7 +131,7 @@ describe('computeAdherence', () => {
 
   it('places a session near midnight in the week of its local start date', () => {
     // Week W41 gets its third session at 23:30 on Sunday 2026-10-11 in Berlin
-    // (21:30 UTC); Friday's session is dropped.
+    // (21:30 UTC; from memory: Berlin is on CEST, UTC+2, until 25 October 2026); Friday's session is dropped.
     const sessions = [
       ...mondayWednesdayFriday(START, 10, ZONE).filter((s) => s.id !== 's-2026-10-09-1000'),
       ride('2026-10-11', ZONE, { time: '23:30' }),
@@ -140,7 +140,7 @@ describe('computeAdherence', () => {
     expect(week(result, '2026-W41')).toMatchObject({ counted: 3, met: true });
     expect(week(result, '2026-W42')).toMatchObject({ counted: 0 });
 
-    // In Sydney, 00:30 on Monday 2026-10-12 is Sunday 13:30 UTC: it belongs to W42.
+    // In Sydney, 00:30 on Monday 2026-10-12 is Sunday 13:30 UTC (from memory: AEDT, UTC+11, from 4 October 2026): it belongs to W42.
     const sydney = 'Australia/Sydney';
     const sydneySessions = [
       ...mondayWednesdayFriday(START, 10, sydney).filter((s) => s.id !== 's-2026-10-09-1000'),

@@ -16,6 +16,9 @@ describe('parseInjuryLevel', () => {
     expect(parseInjuryLevel('L1 motor, T12 sensory')?.label).toBe('T12');
   });
 
+  // from memory: the cord's neurological levels are C1–C8, T1–T12, L1–L5 and
+  // S1–S4/5 (ISNCSCI), so C9, T13 and T0 do not exist; a lower number is more
+  // rostral within a region, and the regions run C, T, L, S from the head.
   it('refuses segments that do not exist and text without a level', () => {
     expect(parseInjuryLevel('C9')).toBeNull();
     expect(parseInjuryLevel('T13')).toBeNull();

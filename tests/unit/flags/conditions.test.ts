@@ -184,6 +184,82 @@ describe('evaluateSessionFlags', () => {
   });
 });
 
+describe('sessions inside a pause', () => {
+  // The program is suspended during a pause: what the rider did then says
+  // nothing about the program (source: PRODUCT.md, "pause" — it raises no flags).
+  const pause = [{ from: '2026-10-12', to: '2026-10-14' }];
+
+  it('are left out of power_drop: two low rides in a pause raise nothing, and the pause leaves the rule the rides before it', () => {
+    const sessions = withSession(withSession(steadySessions(), MON, { meanPowerW: 12 }), WED, { meanPowerW: 12 });
+    expect(evaluateSessionFlags(flagInput({ sessions })).map((f) => f.kind)).toEqual(['power_drop']);
+    expect(evaluateSessionFlags(flagInput({ sessions, pauses: pause }))).toEqual([]);
+  });
+
+  it('are left out of current_rise', () => {
+    const sessions = withSession(withSession(steadySessions(), MON, { currentPerWattMaPerW: 3.4 }), WED, { currentPerWattMaPerW: 3.4 });
+    expect(evaluateSessionFlags(flagInput({ sessions })).map((f) => f.kind)).toEqual(['current_rise']);
+    expect(evaluateSessionFlags(flagInput({ sessions, pauses: pause }))).toEqual([]);
+  });
+
+  it('are left out of the usual level: a paused week of high power does not make normal rides look like a drop', () => {
+    // W41 at 40 W inside a pause; W39, W40 and W42 at 20 W. Without the pause
+    // the usual level (median of the six before the latest two) would be 30 W.
+    let sessions = steadySessions();
+    for (const id of ['s-2026-10-05-1000', 's-2026-10-07-1000', 's-2026-10-09-1000']) sessions = withSession(sessions, id, { meanPowerW: 40 });
+    expect(evaluateSessionFlags(flagInput({ sessions })).map((f) => [f.kind, f.severity])).toEqual([['power_drop', 'review']]);
+    expect(evaluateSessionFlags(flagInput({ sessions, pauses: [{ from: '2026-10-05', to: '2026-10-11' }] }))).toEqual([]);
+  });
+
+  it('are left out of short_session', () => {
+    const sessions = withSession(withSession(steadySessions(), MON, { durationS: 15 * 60 }), WED, { durationS: 15 * 60 });
+    expect(evaluateSessionFlags(flagInput({ sessions })).map((f) => f.kind)).toEqual(['short_session']);
+    expect(evaluateSessionFlags(flagInput({ sessions, pauses: pause }))).toEqual([]);
+  });
+});
+
+describe('clinic thresholds', () => {
+  // Each verdict below flips with the clinic's setting; the defaults are those
+  // of thresholds.test.ts.
+  it('move the power-drop lines', () => {
+    const sessions = withSession(withSession(steadySessions(), MON, { meanPowerW: 15 }), WED, { meanPowerW: 15 }); // 25 % below 20 W
+    expect(evaluateSessionFlags(flagInput({ sessions })).map((f) => f.severity)).toEqual(['review']);
+    expect(evaluateSessionFlags(flagInput({ sessions, thresholds: { powerDropReviewPct: 30, powerDropUrgentPct: 40 } }))).toEqual([]);
+    expect(evaluateSessionFlags(flagInput({ sessions, thresholds: { powerDropReviewPct: 10, powerDropUrgentPct: 24 } })).map((f) => f.severity)).toEqual(['urgent']);
+  });
+
+  it('move the current-rise line', () => {
+    const sessions = withSession(withSession(steadySessions(), MON, { currentPerWattMaPerW: 3 }), WED, { currentPerWattMaPerW: 3 }); // 20 % above 2.5
+    expect(evaluateSessionFlags(flagInput({ sessions }))).toEqual([]);
+    expect(evaluateSessionFlags(flagInput({ sessions, thresholds: { currentRiseReviewPct: 15 } })).map((f) => f.kind)).toEqual(['current_rise']);
+  });
+
+  it('set how long a gap may grow', () => {
+    // Last session Friday 2026-10-02; 2026-10-03 … 2026-10-13 are 11 days.
+    const sessions = steadySessions().filter((s) => s.startedAt < at('2026-10-03', '00:00', ZONE));
+    const now = at('2026-10-13', '09:00', ZONE);
+    expect(evaluateSessionFlags(flagInput({ sessions, now })).map((f) => f.severity)).toEqual(['urgent']);
+    // With 14 days allowed the gap is not yet urgent; the missed W41 is.
+    expect(evaluateSessionFlags(flagInput({ sessions, now, thresholds: { missedNoSessionDays: 14 } })).map((f) => [f.severity, f.anchor])).toEqual([['review', '2026-W41']]);
+  });
+
+  it('set when a session counts and how many short ones raise short_session', () => {
+    // 20 of 30 minutes is 67 %: short at 80 %, counted at 60 %.
+    const sessions = withSession(withSession(steadySessions(), MON, { durationS: 20 * 60 }), WED, { durationS: 20 * 60 });
+    expect(evaluateSessionFlags(flagInput({ sessions })).map((f) => f.kind)).toEqual(['short_session']);
+    expect(evaluateSessionFlags(flagInput({ sessions, thresholds: { countThresholdPct: 60 } }))).toEqual([]);
+    expect(evaluateSessionFlags(flagInput({ sessions, thresholds: { shortSessionsOfLast3: 3 } }))).toEqual([]);
+  });
+
+  it('set how many sessions make the usual level', () => {
+    // Only the four sessions before the latest two: 18, 19, 40, 40 → median 29.5 W, so 20 W is 32 % below.
+    let sessions = steadySessions();
+    for (const [id, p] of [['s-2026-10-02-1000', 18], ['s-2026-10-05-1000', 19], ['s-2026-10-07-1000', 40], ['s-2026-10-09-1000', 40]] as const) sessions = withSession(sessions, id, { meanPowerW: p });
+    // source: hand-worked — the default six (20, 20, 18, 19, 40, 40) have median 20 W: no drop.
+    expect(evaluateSessionFlags(flagInput({ sessions }))).toEqual([]);
+    expect(evaluateSessionFlags(flagInput({ sessions, thresholds: { baselineSessions: 4, baselineMinSessions: 4 } })).map((f) => [f.kind, f.severity])).toEqual([['power_drop', 'review']]);
+  });
+});
+
 describe('conditionHeldAt', () => {
   it('judges a missed week with the data we have now', () => {
     const missing = steadySessions().filter((s) => s.id !== 's-2026-10-09-1000');

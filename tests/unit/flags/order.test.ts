@@ -1,15 +1,10 @@
 // The flags after a batch must not depend on the order in which its files
 // were parsed: planning after each arrival, feeding the result back, ends
-// where evaluating once at the end does.
+// where planning once at the end does. (Arrival at different times, across
+// batches: ./arrival.test.ts.)
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import {
-  applyFlagChanges,
-  evaluateSessionFlags,
-  planFlagChanges,
-  type ExistingFlag,
-  type FlagInput,
-} from '../../../src/lib/flags';
+import { applyFlagChanges, evaluateSessionFlags, planFlagChanges, type ExistingFlag, type FlagInput } from '../../../src/lib/flags';
 import { mondayWednesdayFriday, plusDays, type DemoSession } from '../adherence/fixtures';
 import { at, PRESCRIPTIONS, ride, START, ZONE } from './scenario';
 
@@ -61,10 +56,10 @@ function plan(flags: ExistingFlag[], sessions: DemoSession[], now = NOW): Existi
 }
 
 const key = (f: { kind: string; severity: string; anchor: string }) => `${f.kind}|${f.severity}|${f.anchor}`;
-const openKeys = (flags: ExistingFlag[]) =>
-  flags.filter((f) => f.state === 'open' || f.state === 'acknowledged').map(key).sort();
-const activeKeys = (flags: ExistingFlag[]) =>
-  flags.filter((f) => (f.state === 'open' || f.state === 'acknowledged') && f.clearedAt === null).map(key).sort();
+const live = (flags: ExistingFlag[]) => flags.filter((f) => f.state === 'open' || f.state === 'acknowledged');
+/** What the therapist is shown: each live flag's episode, severity and whether it has cleared. */
+const shown = (flags: ExistingFlag[]) => live(flags).map((f) => `${key(f)}|${f.clearedAt === null ? 'holds' : 'cleared'}`).sort();
+const holding = (flags: ExistingFlag[]) => live(flags).filter((f) => f.clearedAt === null).map(key).sort();
 
 function arriveOneByOne(start: ExistingFlag[], before: DemoSession[], batch: DemoSession[]): ExistingFlag[] {
   let flags = start;
@@ -76,29 +71,36 @@ function arriveOneByOne(start: ExistingFlag[], before: DemoSession[], batch: Dem
   return flags;
 }
 
-describe('order of arrival within a batch', () => {
-  it('ends with the open flags that evaluating once at the end gives, starting from no flags', () => {
-    fc.assert(
-      fc.property(shuffledBatchArb, ([batch, order]) => {
-        const final = arriveOneByOne([], history, order);
-        const expected = evaluateSessionFlags(input([...history, ...batch])).map(key).sort();
-        // Nothing raised on a partial view lingers as cleared: every open flag holds now.
-        expect(openKeys(final)).toEqual(expected);
-      }),
-      { numRuns: 150, seed: 20261017 },
-    );
-  });
+// A property of 100 batches of up to 23 files, each file planned on arrival:
+// a few seconds on a quiet machine, so the budget leaves room for a busy one.
+const BUDGET_MS = 60_000;
 
-  // With flags from earlier batches the flags that hold always end the same.
-  // Not covered: whether an earlier flag ends cleared or withdrawn, and open
-  // or acknowledged, can depend on the order when the batch both refutes it
-  // (late files) and holds a new episode that comes and goes within the batch.
-  it('ends with the same flags holding whatever the order, starting from flags raised by earlier batches', () => {
-    fc.assert(
-      fc.property(
-        shuffledBatchArb,
-        fc.constantFrom('open', 'acknowledged'),
-        ([batch, order], state) => {
+describe('order of arrival within a batch', () => {
+  it(
+    'ends with the flags that planning once at the end gives, starting from no flags',
+    () => {
+      fc.assert(
+        fc.property(shuffledBatchArb, ([batch, order]) => {
+          const final = arriveOneByOne([], history, order);
+          const atOnce = plan([], [...history, ...batch]);
+          expect(shown(final)).toEqual(shown(atOnce));
+          // The flags that hold are exactly the conditions that hold now.
+          expect(holding(final)).toEqual(evaluateSessionFlags(input([...history, ...batch])).map(key).sort());
+        }),
+        { numRuns: 100, seed: 20261017 },
+      );
+    },
+    BUDGET_MS,
+  );
+
+  // With flags from earlier batches the flags shown end the same whatever the
+  // order. Not covered: open or acknowledged can depend on the order, when the
+  // batch moves an acknowledged flag to a new episode and back.
+  it(
+    'ends with the same flags whatever the order, starting from flags raised by earlier batches',
+    () => {
+      fc.assert(
+        fc.property(shuffledBatchArb, fc.constantFrom('open', 'acknowledged'), ([batch, order], state) => {
           // Earlier batches: the history, and a drop in W38 flagged when it came in.
           const before = [
             ...history.slice(0, -2),
@@ -106,16 +108,17 @@ describe('order of arrival within a batch', () => {
             ride('2026-09-18', ZONE, { power: 11 }),
           ];
           const earlier = plan([], before, at('2026-09-19', '09:00', ZONE)).map((f) => ({ ...f, state }));
-          expect(openKeys(earlier)).toEqual(['power_drop|urgent|s-2026-09-18-1000']);
+          expect(shown(earlier)).toEqual(['power_drop|urgent|s-2026-09-18-1000|holds']);
 
           const oneByOne = arriveOneByOne(earlier, before, order);
           const atOnce = plan(earlier, [...before, ...batch]);
-          const expected = evaluateSessionFlags(input([...before, ...batch])).map(key).sort();
-          expect(activeKeys(oneByOne)).toEqual(expected);
-          expect(activeKeys(atOnce)).toEqual(expected);
-        },
-      ),
-      { numRuns: 150, seed: 20260919 },
-    );
-  });
+          const fromNothing = plan([], [...before, ...batch]);
+          expect(shown(oneByOne)).toEqual(shown(fromNothing));
+          expect(shown(atOnce)).toEqual(shown(fromNothing));
+        }),
+        { numRuns: 100, seed: 20260919 },
+      );
+    },
+    BUDGET_MS,
+  );
 });

@@ -115,16 +115,39 @@ describe('planFlagChanges', () => {
     ]);
   });
 
-  it('withdraws a flag raised after the power had already recovered, once the late files show it', () => {
-    // Raised on Friday evening with Monday and Wednesday low; Thursday's normal
-    // ride reaches Kinloop only later. When the flag was raised, the latest two
-    // were Wednesday and Thursday: the flag should not have stood.
+  it('clears, not withdraws, a drop whose recovery came in later: the drop held on Wednesday whenever the files came', () => {
+    // Raised on Friday morning with Monday and Wednesday low; Thursday's normal
+    // ride reaches Kinloop only later. Uploaded as ridden, the drop would have
+    // been flagged on Wednesday and cleared on Thursday: so it ends here.
     const raisedAt = at('2026-10-16', '07:00', ZONE);
     const raised = step([], flagInput({ sessions: powerDrop(12), now: raisedAt })).flags;
     expect(raised).toHaveLength(1);
     const late = [...powerDrop(12), ride('2026-10-15', ZONE)];
     const { changes } = step(raised, flagInput({ sessions: late, now: at('2026-10-16', '20:00', ZONE) }));
-    expect(changes).toEqual([expect.objectContaining({ type: 'withdraw' })]);
+    expect(changes).toEqual([expect.objectContaining({ type: 'clear', condition: expect.objectContaining({ kind: 'power_drop', anchor: WED }) })]);
+  });
+
+  it('raises a drop that held and recovered within one late batch as a cleared flag, saying why it cleared', () => {
+    const recovered = [...powerDrop(12), ride('2026-10-15', ZONE)];
+    const now = at('2026-10-16', '20:00', ZONE);
+    const { changes, flags } = step([], flagInput({ sessions: recovered, now }));
+    expect(changes).toEqual([
+      {
+        type: 'raise',
+        condition: expect.objectContaining({ kind: 'power_drop', severity: 'urgent', anchor: WED }),
+        cleared: { why: 'Cleared: mean power was 12.0 W and 20.0 W in the last two sessions, against the usual 20.0 W (not both more than 20 % below).' },
+      },
+    ]);
+    expect(flags).toEqual([expect.objectContaining({ state: 'open', clearedAt: now, raisedAt: now })]);
+    // Nothing more to do until the data changes.
+    expect(planFlagChanges(flags, flagInput({ sessions: recovered, now: at('2026-10-17', '08:00', ZONE) }))).toEqual([]);
+  });
+
+  it('does not raise again an episode a therapist resolved, once it has cleared', () => {
+    const raised = step([], flagInput({ sessions: powerDrop(12) })).flags;
+    const resolved = raised.map((f) => ({ ...f, state: 'resolved' as const }));
+    const recovered = [...powerDrop(12), ride('2026-10-16', ZONE), ride('2026-10-19', ZONE)];
+    expect(planFlagChanges(resolved, flagInput({ sessions: recovered, now: at('2026-10-19', '20:00', ZONE) }))).toEqual([]);
   });
 
   it('never touches a resolved flag, raises a new one for a new episode and not for the resolved one', () => {

@@ -1,6 +1,10 @@
 import { describe, it, expect } from 'vitest';
 import { getDistance, getPreciseDistance } from 'geolib';
-import { EARTH_MEAN_RADIUS_M, haversineM } from '../../../src/lib/goals/haversine';
+import { haversineM } from '../../../src/lib/goals/haversine';
+
+// from memory: the IUGG mean Earth radius R1 = (2a + b) / 3 = 6,371,008.8 m on
+// GRS 80 (Moritz, Geodetic Reference System 1980); haversineM uses it.
+const MEAN_RADIUS_M = 6_371_008.8;
 
 const LHR = { lat: 51.47, lon: -0.4543 };
 const JFK = { lat: 40.6413, lon: -73.7781 };
@@ -16,9 +20,11 @@ const pairs: [string, { lat: number; lon: number }, { lat: number; lon: number }
 ];
 
 describe('haversineM', () => {
-  it('is zero for one point and symmetric', () => {
+  it('is zero for one point and symmetric, and a degree of the equator is 2πR / 360', () => {
     expect(haversineM(LHR, LHR)).toBe(0);
     expect(haversineM(LHR, JFK)).toBe(haversineM(JFK, LHR));
+    // 2π × 6,371,008.8 m / 360 = 111,195.08 m
+    expect(haversineM({ lat: 0, lon: 10 }, { lat: 0, lon: 11 })).toBeCloseTo(111_195.08, 1);
   });
 
   // source: geolib getDistance, a spherical great-circle distance on the
@@ -26,7 +32,7 @@ describe('haversineM', () => {
   // radius, ours must agree within 1 m (0.5 m of rounding plus the law of
   // cosines' float error at short range).
   it.each(pairs)('matches geolib getDistance scaled to its radius: %s', (_, a, b) => {
-    const ours = (haversineM(a, b) * 6_378_137) / EARTH_MEAN_RADIUS_M;
+    const ours = (haversineM(a, b) * 6_378_137) / MEAN_RADIUS_M;
     expect(Math.abs(ours - getDistance(a, b))).toBeLessThanOrEqual(1);
   });
 

@@ -51,7 +51,8 @@ describe('nextSessionDue', () => {
   });
 
   it('crosses the week boundary in the client time zone, not UTC', () => {
-    // 11:30 UTC on Sunday 4 October is 00:30 on Monday 5 October in Auckland (UTC+13).
+    // 11:30 UTC on Sunday 4 October is 00:30 on Monday 5 October in Auckland
+    // (from memory: NZDT, UTC+13, from the last Sunday of September).
     const now = '2026-10-04T11:30:00Z';
     const lastSessionAt = '2026-10-04T05:00:00Z'; // Sunday 18:00 in Auckland
     expect(isoWeekLabel('2026-10-05')).toBe('2026-W41');
@@ -61,7 +62,8 @@ describe('nextSessionDue', () => {
 
   it('uses the London date over the end of summer time', () => {
     // 23:30 UTC on Saturday 24 October is 00:30 BST on Sunday 25 October; by
-    // 23:30 UTC on Sunday the clocks are back and it is still Sunday.
+    // 23:30 UTC on Sunday the clocks are back and it is still Sunday (from
+    // memory: UK summer time ends on the last Sunday of October, 01:00 UTC).
     const base = { timeZone: 'Europe/London', sessionsPerWeek: 3, pauses: [] };
     expect(
       nextSessionDue({ ...base, now: '2026-10-24T23:30:00Z', countedThisWeek: 2, lastSessionAt: '2026-10-23T10:00:00Z' }),

@@ -2,7 +2,8 @@ import { describe, it, expect } from 'vitest';
 import { reminderDue, type ReminderInput } from '../../../src/lib/rider/reminder';
 
 const NZ = 'Pacific/Auckland';
-// Monday 5 October 2026 in Auckland is UTC+13 (summer time since 27 September).
+// Monday 5 October 2026 in Auckland is UTC+13 (from memory: New Zealand summer
+// time starts on the last Sunday of September, 27 September in 2026).
 function reminder(partial: Partial<ReminderInput>) {
   return reminderDue({
     timeZone: NZ,
@@ -40,7 +41,8 @@ describe('reminderDue', () => {
 
   it('follows London time over the end of summer time', () => {
     const base = { timeZone: 'Europe/London', lastReminderSentAt: null, sessionsToday: 0 };
-    // 17:30 UTC is 18:30 BST on Saturday 24 October, but 17:30 GMT on Sunday 25 October.
+    // 17:30 UTC is 18:30 BST on Saturday 24 October, but 17:30 GMT on Sunday 25 October
+    // (from memory: UK summer time ends on the last Sunday of October).
     expect(reminderDue({ ...base, now: '2026-10-24T17:30:00Z', nextDue: '2026-10-24' })).toBe(true);
     expect(reminderDue({ ...base, now: '2026-10-25T17:30:00Z', nextDue: '2026-10-25' })).toBe(false);
     expect(reminderDue({ ...base, now: '2026-10-25T18:00:00Z', nextDue: '2026-10-25' })).toBe(true);

@@ -5,7 +5,6 @@
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { DECIMALS } from '../../../src/lib/rides/metrics';
 import { parseRide } from '../../../src/lib/rides/parse';
 import type { ParseOptions, RideSummary } from '../../../src/lib/rides/types';
 
@@ -18,33 +17,24 @@ const names = readdirSync(DIR)
 const json = (file: string) => JSON.parse(readFileSync(DIR + file, 'utf8'));
 const optionsOf = (name: string): ParseOptions => (existsSync(`${DIR}${name}.options.json`) ? json(`${name}.options.json`) : {});
 
-// Both sides round to the same decimals; one rounding step absorbs a value that
-// lies on a rounding boundary and lands on different sides in the two implementations.
-const STEP: Record<string, number> = {
-  durationS: 10 ** -DECIMALS.seconds,
-  activeS: 10 ** -DECIMALS.seconds,
-  passiveS: 10 ** -DECIMALS.seconds,
-  cooldownS: 10 ** -DECIMALS.seconds,
-  meanPowerW: 10 ** -DECIMALS.watts,
-  peakPower5sW: 10 ** -DECIMALS.watts,
-  meanCadenceRpm: 10 ** -DECIMALS.rpm,
-  workKj: 10 ** -DECIMALS.kilojoules,
-  distanceM: 10 ** -DECIMALS.metres,
-  currentPerWattMaPerW: 10 ** -DECIMALS.milliamperesPerWatt,
-  pulseWidthUs: 10 ** -DECIMALS.microseconds,
-  frequencyHz: 10 ** -DECIMALS.hertz,
-  meanCurrentMa: 10 ** -DECIMALS.milliamperes,
-  maxCurrentMa: 10 ** -DECIMALS.milliamperes,
-};
-
-function close(actual: number | null, expected: number | null, step: number, what: string) {
-  if (expected === null) {
-    expect(actual, what).toBeNull();
-    return;
-  }
-  expect(actual, what).not.toBeNull();
-  expect(Math.abs((actual as number) - expected), `${what}: ${actual} vs ${expected}`).toBeLessThanOrEqual(step + 1e-9);
-}
+// Both sides round as DEVELOPERS.md states (half away from zero; seconds, W,
+// rpm, m, mA, µs, Hz to 0.1; kJ and mA/W to 0.001), so the numbers must be
+// equal, not merely close: a change of the rounding rule or of a field's
+// decimals shows here.
+const NUMBERS = [
+  'durationS',
+  'activeS',
+  'passiveS',
+  'cooldownS',
+  'meanPowerW',
+  'peakPower5sW',
+  'meanCadenceRpm',
+  'workKj',
+  'distanceM',
+  'currentPerWattMaPerW',
+  'pulseWidthUs',
+  'frequencyHz',
+] as const;
 
 describe('ride-file fixtures against independently computed expectations', () => {
   it('has at least twelve accepted fixtures and one refused fixture per refusal code', () => {
@@ -73,15 +63,8 @@ describe('ride-file fixtures against independently computed expectations', () =>
       expect(Object.keys(s).sort()).toEqual(Object.keys(e).sort());
       expect(s.startedAt).toBe(e.startedAt);
       expect(s.samples).toBe(e.samples);
-      for (const key of Object.keys(STEP)) {
-        if (key in e) close(s[key as keyof RideSummary] as number | null, e[key as keyof RideSummary] as number | null, STEP[key], key);
-      }
-      expect(Object.keys(s.channels).sort()).toEqual(Object.keys(e.channels).sort());
-      for (const [channel, c] of Object.entries(e.channels)) {
-        const got = s.channels[channel as keyof typeof s.channels]!;
-        close(got.meanCurrentMa, c!.meanCurrentMa, STEP.meanCurrentMa, `${channel}.meanCurrentMa`);
-        close(got.maxCurrentMa, c!.maxCurrentMa, STEP.maxCurrentMa, `${channel}.maxCurrentMa`);
-      }
+      for (const key of NUMBERS) expect(s[key], key).toBe(e[key]);
+      expect(s.channels).toEqual(e.channels);
       // Same warnings, in any order: both implementations word them alike.
       expect([...s.warnings].sort()).toEqual([...e.warnings].sort());
     });

@@ -30,8 +30,8 @@ describe('summarise', () => {
     expect(s.meanCadenceRpm).toBe(47.5);
     // work over all samples: 100 + 20 + 40 + 20 + 0 = 180 J
     expect(s.workKj).toBe(0.18);
-    // distance from cadence: Σ c/60 · Δ · 2 m = (30 + 80 + 50 + 60 + 30) / 60 · 2
-    expect(s.distanceM).toBe(roundTo((250 / 60) * 2, 1));
+    // distance from cadence: Σ c/60 · Δ · 2 m = (30 + 80 + 50 + 60 + 30) / 60 · 2 = 8.33… m, to 0.1 m
+    expect(s.distanceM).toBe(8.3);
   });
 
   it('finds the 5 s peak only in windows with 5 s of active Δ', () => {

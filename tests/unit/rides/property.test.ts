@@ -35,21 +35,62 @@ function activeRange(values: Float64Array, r: ParsedRide): [number, number] | nu
   return lo <= hi ? [lo, hi] : null;
 }
 
-function within(value: number | null, values: Float64Array | undefined, r: ParsedRide, what: string) {
-  if (value === null || values === undefined) return;
+/**
+ * Δ per PRODUCT.md, worked out here on its own: the step to the next sample,
+ * 0 for a step over 10 s (a pause), the median of all raw steps for the last.
+ */
+function deltasOf(t: Float64Array): number[] {
+  const raw = Array.from({ length: t.length - 1 }, (_, k) => t[k + 1] - t[k]);
+  const sorted = [...raw].sort((a, b) => a - b);
+  const mid = sorted.length / 2;
+  const median = sorted.length === 0 ? 0 : sorted.length % 2 ? sorted[Math.floor(mid)] : (sorted[mid - 1] + sorted[mid]) / 2;
+  return [...raw.map((d) => (d > 10 + 1e-6 ? 0 : d)), median];
+}
+
+/** The Δ that the active samples with a value of this column weigh. */
+function activeWeight(values: Float64Array, r: ParsedRide): number {
+  const d = deltasOf(r.series.t);
+  let w = 0;
+  values.forEach((v, k) => {
+    if (r.series.phase[k] === 'active' && Number.isFinite(v)) w += d[k];
+  });
+  return w;
+}
+
+type Kind = 'mean' | 'median' | 'peak';
+
+/**
+ * A summary number lies within its column's active values (to the rounding);
+ * it is null exactly when nothing could give it: no column, or active values
+ * that weigh nothing (a time-weighted mean), or none at all (a median). A 5-s
+ * peak may be null with values, but not with a value and under 5 s of them.
+ */
+function within(value: number | null, values: Float64Array | undefined, r: ParsedRide, what: string, kind: Kind) {
+  if (values === undefined) {
+    expect(value, `${what} without its column`).toBeNull();
+    return;
+  }
   const range = activeRange(values, r);
+  const weight = activeWeight(values, r);
+  if (value === null) {
+    if (kind === 'mean') expect(weight, `${what} is null though active values weigh ${weight} s`).toBeLessThanOrEqual(1e-9);
+    if (kind === 'median') expect(range, `${what} is null though there are active values`).toBeNull();
+    return;
+  }
   expect(range, `${what} has a value but no active samples`).not.toBeNull();
+  if (kind === 'peak') expect(weight, `${what} with under 5 s of active values`).toBeGreaterThanOrEqual(5 - 1e-6);
   const [lo, hi] = range!;
   expect(value, what).toBeGreaterThanOrEqual(roundTo(lo, 1) - HALF_STEP);
   expect(value, what).toBeLessThanOrEqual(roundTo(hi, 1) + HALF_STEP);
 }
 
-function check(bytes: Uint8Array, result: ParsedRide | RideRefusal) {
+/** Checks a parse; true when the file was accepted (and its summary checked). */
+function check(bytes: Uint8Array, result: ParsedRide | RideRefusal): boolean {
   if (!result.ok) {
     expect(CODES).toContain(result.error.code);
     expect(result.error.message.length).toBeGreaterThan(0);
     if (result.error.line !== undefined) expect(Number.isInteger(result.error.line) && result.error.line >= 1).toBe(true);
-    return;
+    return false;
   }
   const { summary: s, series } = result;
   const n = series.t.length;
@@ -63,14 +104,15 @@ function check(bytes: Uint8Array, result: ParsedRide | RideRefusal) {
   for (const x of [s.durationS, s.activeS, s.passiveS, s.cooldownS]) expect(x).toBeGreaterThanOrEqual(0);
   expect(Math.abs(s.activeS + s.passiveS + s.cooldownS - s.durationS)).toBeLessThanOrEqual(0.2 + 1e-9);
   if (s.workKj !== null) expect(s.workKj).toBeGreaterThanOrEqual(0);
-  within(s.meanPowerW, series.powerW, result, 'meanPowerW');
-  within(s.peakPower5sW, series.powerW, result, 'peakPower5sW');
-  within(s.meanCadenceRpm, series.cadenceRpm, result, 'meanCadenceRpm');
-  within(s.pulseWidthUs, series.pulseWidthUs, result, 'pulseWidthUs');
-  within(s.frequencyHz, series.frequencyHz, result, 'frequencyHz');
+  within(s.meanPowerW, series.powerW, result, 'meanPowerW', 'mean');
+  within(s.peakPower5sW, series.powerW, result, 'peakPower5sW', 'peak');
+  within(s.meanCadenceRpm, series.cadenceRpm, result, 'meanCadenceRpm', 'mean');
+  within(s.pulseWidthUs, series.pulseWidthUs, result, 'pulseWidthUs', 'median');
+  within(s.frequencyHz, series.frequencyHz, result, 'frequencyHz', 'median');
+  expect(Object.keys(s.channels).sort()).toEqual(Object.keys(series.channels).sort());
   for (const [name, c] of Object.entries(s.channels)) {
     const values = series.channels[name as keyof typeof series.channels]!;
-    within(c!.meanCurrentMa, values, result, `${name}.meanCurrentMa`);
+    within(c!.meanCurrentMa, values, result, `${name}.meanCurrentMa`, 'mean');
     const finite = [...values].filter(Number.isFinite);
     expect(c!.maxCurrentMa).toBe(finite.length ? roundTo(Math.max(...finite), 1) : null);
   }
@@ -78,10 +120,23 @@ function check(bytes: Uint8Array, result: ParsedRide | RideRefusal) {
   if (!series.distanceM && s.distanceM !== null) expect(s.distanceM).toBeGreaterThanOrEqual(0);
   for (const v of Object.values(s)) if (typeof v === 'number') expect(Number.isFinite(v)).toBe(true);
   expect(s.warnings.every((w) => typeof w === 'string' && w.length > 0)).toBe(true);
+  return true;
 }
 
-function run(bytes: Uint8Array, options?: ParseOptions) {
-  check(bytes, parseRide(bytes, options));
+/** Runs a property and returns the share of its inputs that were accepted, so a test can show it reached the summary checks. */
+function acceptedShare<T>(arb: fc.Arbitrary<T>, parse: (value: T) => boolean, numRuns: number): number {
+  let accepted = 0;
+  fc.assert(
+    fc.property(arb, (value) => {
+      if (parse(value)) accepted++;
+    }),
+    { numRuns },
+  );
+  return accepted / numRuns;
+}
+
+function run(bytes: Uint8Array, options?: ParseOptions): boolean {
+  return check(bytes, parseRide(bytes, options));
 }
 
 const DIR = fileURLToPath(new URL('../../../fixtures/rides/', import.meta.url));
@@ -142,41 +197,112 @@ function render(g: typeof grid extends fc.Arbitrary<infer T> ? T : never): Uint8
   return g.bom ? Uint8Array.from([0xef, 0xbb, 0xbf, ...bytes]) : bytes;
 }
 
+/** A small valid ride file: a header and `rows` rows of plausible values. */
+function validRide(rows: number): string {
+  const lines = ['Time (s),Phase,Power (W),Cadence (rpm),Quad L (mA),Pulse width (us),Freq (Hz)'];
+  for (let i = 0; i < rows; i++) lines.push(`${i},${i < 3 ? 'passive' : 'active'},${10 + (i % 7)},${40 + (i % 3)},${50 + (i % 5)},300,35`);
+  return lines.join('\n') + '\n';
+}
+
+// Heavier than most unit tests (thousands of parses); the budget leaves room for a busy machine.
+const BUDGET_MS = 60_000;
+
 describe('parseRide on arbitrary input', () => {
-  it('random bytes', () => {
-    fc.assert(fc.property(fc.uint8Array({ maxLength: 3000 }), (b) => run(b)), { numRuns: 300 });
-  });
-
-  it('random bytes that look a little like text', () => {
-    const texty = fc.array(fc.constantFrom(...'0123456789.,;:\t\n\r "-TimePowerCadence()Wsrpm'.split('')), { maxLength: 2000 }).map((cs) => new TextEncoder().encode(cs.join('')));
-    fc.assert(fc.property(texty, (b) => run(b)), { numRuns: 300 });
-  });
-
-  it('mutated fixtures', () => {
+  it('random bytes are refused with a known code, never thrown', () => {
+    let refused = 0;
     fc.assert(
-      fc.property(fc.constantFrom(...fixtures), fc.array(mutation, { minLength: 1, maxLength: 12 }), (bytes, steps) => run(mutate(bytes, steps))),
-      { numRuns: 400 },
+      fc.property(fc.uint8Array({ maxLength: 3000 }), (b) => {
+        if (!run(b)) refused++;
+      }),
+      { numRuns: 300 },
     );
+    // Binary noise is not a ride file.
+    expect(refused).toBeGreaterThanOrEqual(295);
   });
 
-  it('random CSV-like grids', () => {
-    fc.assert(fc.property(grid, (g) => run(render(g))), { numRuns: 600 });
-  });
+  it(
+    'random bytes spliced into a valid ride file',
+    () => {
+      const base = new TextEncoder().encode(validRide(40));
+      const splice = fc.record({ at: fc.nat(), bytes: fc.uint8Array({ minLength: 1, maxLength: 6 }) });
+      const share = acceptedShare(
+        fc.array(splice, { minLength: 1, maxLength: 4 }),
+        (splices) => {
+          let b = Array.from(base);
+          for (const sp of splices) b.splice(sp.at % (b.length + 1), 0, ...sp.bytes);
+          return run(Uint8Array.from(b));
+        },
+        300,
+      );
+      expect(share).toBeGreaterThan(0.5);
+    },
+    BUDGET_MS,
+  );
 
-  it('odd options', () => {
-    const options = fc.record(
-      {
-        maxBytes: fc.constantFrom(0, -1, NaN, 10, 1e9),
-        metresPerRev: fc.constantFrom(0, -2, NaN, Infinity, 1.5),
-        timeZone: fc.constantFrom('Europe/Berlin', 'Not/AZone', '', 'UTC'),
-        profile: fc.constantFrom<ParseOptions['profile']>(
-          { name: 'p', columns: { Notes: { field: 'power', unit: 'parsecs' }, rpm: { field: 'time' } }, timeFormat: 'clock' },
-          { name: 'q', columns: { Notes: { field: 'toString' }, constructor: { field: 'power' } }, timeFormat: 'constructor', metresPerRev: '2' } as unknown as ParseOptions['profile'],
-          { name: 'r' } as unknown as ParseOptions['profile'],
-        ),
-      },
-      { requiredKeys: [] },
-    );
-    fc.assert(fc.property(grid, options, (g, o) => run(render(g), o)), { numRuns: 300 });
-  });
+  it(
+    'random text-like characters in the cells of a ride file, with or without its header',
+    () => {
+      const chars = fc.constantFrom(...'0123456789.,;:\t "-TimePowerCadence()Wsrpm'.split(''));
+      const noise = fc.array(chars, { maxLength: 30 }).map((cs) => cs.join(''));
+      const number = fc.double({ min: -20, max: 200, noNaN: true }).map((x) => x.toFixed(1));
+      const cell = fc.oneof({ weight: 3, arbitrary: number }, { weight: 1, arbitrary: noise });
+      const file = fc.record({
+        delimiter: fc.constantFrom(',', ';', '\t'),
+        header: fc.constantFrom(true, true, true, false),
+        rows: fc.array(fc.tuple(cell, cell, fc.option(noise, { nil: undefined })), { minLength: 1, maxLength: 60 }),
+        eol: fc.constantFrom('\n', '\r\n', '\r'),
+      });
+      const share = acceptedShare(
+        file,
+        (f) => {
+          const d = f.delimiter;
+          const lines = f.rows.map(([a, b, extra], i) => [String(i), a, b, ...(extra === undefined ? [] : [extra])].join(d));
+          return run(new TextEncoder().encode([...(f.header ? [['Time (s)', 'Power (W)', 'Cadence (rpm)'].join(d)] : []), ...lines].join(f.eol)));
+        },
+        300,
+      );
+      expect(share).toBeGreaterThan(0.3);
+    },
+    BUDGET_MS,
+  );
+
+  it(
+    'mutated fixtures',
+    () => {
+      const share = acceptedShare(fc.tuple(fc.constantFrom(...fixtures), fc.array(mutation, { minLength: 1, maxLength: 12 })), ([bytes, steps]) => run(mutate(bytes, steps)), 400);
+      expect(share).toBeGreaterThan(0.3);
+    },
+    BUDGET_MS,
+  );
+
+  it(
+    'random CSV-like grids',
+    () => {
+      const share = acceptedShare(grid, (g) => run(render(g)), 600);
+      expect(share).toBeGreaterThan(0.2);
+    },
+    BUDGET_MS,
+  );
+
+  it(
+    'odd options',
+    () => {
+      const options = fc.record(
+        {
+          maxBytes: fc.constantFrom(0, -1, NaN, 10, 1e9),
+          metresPerRev: fc.constantFrom(0, -2, NaN, Infinity, 1.5),
+          timeZone: fc.constantFrom('Europe/Berlin', 'Not/AZone', '', 'UTC'),
+          profile: fc.constantFrom<ParseOptions['profile']>(
+            { name: 'p', columns: { Notes: { field: 'power', unit: 'parsecs' }, rpm: { field: 'time' } }, timeFormat: 'clock' },
+            { name: 'q', columns: { Notes: { field: 'toString' }, constructor: { field: 'power' } }, timeFormat: 'constructor', metresPerRev: '2' } as unknown as ParseOptions['profile'],
+            { name: 'r' } as unknown as ParseOptions['profile'],
+          ),
+        },
+        { requiredKeys: [] },
+      );
+      const share = acceptedShare(fc.tuple(grid, options), ([g, o]) => run(render(g), o), 300);
+      expect(share).toBeGreaterThan(0.1);
+    },
+    BUDGET_MS,
+  );
 });

@@ -83,6 +83,8 @@ describe('bodyFromDraft', () => {
 
     it('has its error key named after a form field, so the message lands beside an input', () => {
       const { errors } = bodyFromDraft(draftWith({ 'bpBefore.diastolic': '80', 'bpAfter.systolic': '120' }));
+      // Both halves are missing, each beside its own input.
+      expect(Object.keys(errors).sort()).toEqual(['bpAfter.diastolic', 'bpBefore.systolic']);
       for (const key of Object.keys(errors)) expect(Object.keys(NUMBER_FIELDS)).toContain(key);
     });
   });

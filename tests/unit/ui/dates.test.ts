@@ -22,6 +22,7 @@ describe('dayLabel and dayMonth of a local date', () => {
     }
   });
 
+  // from memory (CLDR de): day, full stop, abbreviated month with its own full stop.
   it('word the date in the locale', () => {
     expect(dayMonth('2026-10-05', 'de-DE')).toBe('5. Okt.');
   });

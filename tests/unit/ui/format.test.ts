@@ -27,6 +27,7 @@ describe('number', () => {
     expect(number(0, 0, 'en-GB')).toBe('0');
   });
 
+  // from memory (CLDR): British English groups thousands with a comma and a decimal point; German the other way round.
   it('groups thousands and uses the decimal sign of the locale', () => {
     expect(number(1234.5, 1, 'en-GB')).toBe('1,234.5');
     expect(number(1234.5, 2, 'de-DE')).toBe('1.234,50');
@@ -65,6 +66,7 @@ describe('minutes', () => {
     expect(minutes(1830, 'en-GB')).toBe('31 min');
   });
 
+  // from memory (CLDR): German writes a decimal comma.
   it('uses the locale for the decimal sign', () => {
     expect(minutes(90, 'de-DE')).toBe('1,5 min');
   });
@@ -117,6 +119,7 @@ describe('distance', () => {
     expect(distance(999, 'en-GB')).toBe('999 m');
   });
 
+  // from memory (CLDR): en-GB 1,500.00 and de-DE 12,34.
   it('gives kilometres with two decimals from a kilometre on', () => {
     expect(distance(1000, 'en-GB')).toBe('1.00 km');
     expect(distance(12_340, 'en-GB')).toBe('12.34 km');

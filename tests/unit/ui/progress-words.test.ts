@@ -61,6 +61,7 @@ describe('weeklySentence', () => {
     );
   });
 
+  // from memory (CLDR de): a decimal comma, and '5. Okt' for 5 October.
   it('words numbers and dates in the viewer’s language', () => {
     const text = weeklySentence(weeks([10.5, null]), MEASURES.power, 'de-DE');
     expect(text).toContain('10,5 W');

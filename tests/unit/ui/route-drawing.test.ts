@@ -1,7 +1,9 @@
 import { describe, it, expect } from 'vitest';
-import { drawRoute, DRAWING_WIDTH, type RouteDrawing } from '../../../src/components/rider/route-drawing';
+import { drawRoute, type RouteDrawing } from '../../../src/components/rider/route-drawing';
 import { cumulativeM, progressAlong, type RoutePoint } from '../../../src/lib/goals/route';
 
+// The drawing is 600 units wide (the design's choice), with a 36-unit margin each side.
+const DRAWING_WIDTH = 600;
 const PAD = 36;
 const route = (points: RoutePoint[]) => ({ id: 'r', name: 'Test route', points });
 /** The drawing of a rider `distanceM` along the route, positioned as the goal API does it. */

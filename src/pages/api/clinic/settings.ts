@@ -1,9 +1,8 @@
 import type { APIRoute } from 'astro';
 import { signedIn } from '../../../lib/auth/context';
-import { flagThresholdsSchema } from '../../../lib/flags';
 import { readJson } from '../../../lib/http/request';
 import { handle, json } from '../../../lib/http/respond';
-import { readClinicSettings, saveClinicSettings } from '../../../lib/supervision/settings';
+import { clinicSettingsInputSchema, readClinicSettings, saveClinicSettings } from '../../../lib/supervision/settings';
 
 export const GET: APIRoute = ({ url, locals }) =>
   handle(async () => json(await readClinicSettings(signedIn(locals), url.searchParams.get('clinicId') ?? undefined)));
@@ -11,6 +10,6 @@ export const GET: APIRoute = ({ url, locals }) =>
 export const PUT: APIRoute = ({ url, request, locals }) =>
   handle(async () => {
     const ctx = signedIn(locals);
-    const thresholds = await readJson(request, flagThresholdsSchema);
+    const thresholds = await readJson(request, clinicSettingsInputSchema);
     return json(await saveClinicSettings(ctx, thresholds, url.searchParams.get('clinicId') ?? undefined));
   });

@@ -9,5 +9,5 @@ export const POST: APIRoute = ({ request, locals, cookies }) =>
   handle(async () => {
     const input = await readJson(request, acceptInputSchema);
     const result = await acceptInvitation(db(), input, locals);
-    return signedInResponse(db(), cookies, result);
+    return signedInResponse(db(), cookies, result, locals.device);
   });
