@@ -8,6 +8,7 @@ import { auditAs, type RequestContext } from '../auth/context';
 import type { ClientRow, MonitoringEntryRow } from '../db/tables';
 import { badRequest } from '../http/errors';
 import { localDate } from '../time/iso-week';
+import { instant, paragraph } from '../validation/fields';
 import { toCsv } from '../exports/csv';
 import { dataPeriods, isMonth, monthOf, monthRange, MONITORING_ACTIVITIES, periodsWithin, totalsOf, type DataPeriod } from './periods';
 
@@ -18,9 +19,9 @@ export const monitoringInputSchema = z
   .object({
     activity: z.enum(MONITORING_ACTIVITIES as [string, ...string[]], { errorMap: () => ({ message: 'Activity: choose review, phone call, message or report.' }) }),
     seconds: z.number().int('Time: whole seconds.').min(1, 'Time: enter at least one minute.').max(MAX_ENTRY_SECONDS, 'Time: at most 8 hours in one entry; record longer work as several entries.'),
-    startedAt: z.string().datetime({ offset: true, message: 'Started: give a date and time.' }).optional(),
+    startedAt: instant('Started', 'Started: give a date and time.').optional(),
     source: z.enum(['timer', 'manual']),
-    note: z.string().trim().max(1000, 'Note: at most 1000 characters.').optional(),
+    note: paragraph(z.string().trim().max(1000, 'Note: at most 1000 characters.'), 'Note').optional(),
   })
   .strict();
 

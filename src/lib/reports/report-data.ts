@@ -18,6 +18,7 @@ import { pauseView } from '../supervision/pauses';
 import { prescriptionVersions, prescriptionView } from '../supervision/prescriptions';
 import { isoWeekOf, localDate } from '../time/iso-week';
 import { addDays, isLocalDate } from '../time/local-date';
+import { paragraph } from '../validation/fields';
 import { clinicEfficiencyPct } from './energy-settings';
 import { reportFigures } from './figures';
 
@@ -43,7 +44,9 @@ export const reportPeriodSchema = z
   });
 export type ReportPeriod = z.infer<typeof reportPeriodSchema>;
 
-export const reportSummarySchema = z.string().trim().max(2000, 'Summary: at most 2000 characters.');
+export const reportSummarySchema = paragraph(z.string().trim().max(2000, 'Summary: at most 2000 characters.'), 'Summary');
+/** The body of a PDF download: the therapist's optional summary (a form post or JSON). */
+export const reportPdfBodySchema = z.object({ summary: reportSummarySchema.optional() }).strict();
 
 export interface ReportOptions {
   /** What the audit entry calls this read. */

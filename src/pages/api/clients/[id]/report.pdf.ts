@@ -1,5 +1,4 @@
 import type { APIRoute } from 'astro';
-import { z } from 'zod';
 import { requestLocale } from '../../../../components/rides/format';
 import { signedIn } from '../../../../lib/auth/context';
 import { download } from '../../../../lib/http/download';
@@ -7,19 +6,18 @@ import { HttpError } from '../../../../lib/http/errors';
 import { readJson } from '../../../../lib/http/request';
 import { handle } from '../../../../lib/http/respond';
 import { reportPdfFile } from '../../../../lib/reports/report-file';
-import { reportPeriodSchema, reportSummarySchema } from '../../../../lib/reports/report-data';
+import { reportPdfBodySchema, reportPeriodSchema } from '../../../../lib/reports/report-data';
 
 const MAX_FORM_BYTES = 16 * 1024;
-const bodySchema = z.object({ summary: reportSummarySchema.optional() }).strict();
 
 /** The report page's form posts the summary; a script may send it as JSON. */
 async function readSummary(request: Request): Promise<string | undefined> {
   const type = request.headers.get('content-type') ?? '';
-  if (type.includes('application/json')) return (await readJson(request, bodySchema)).summary;
+  if (type.includes('application/json')) return (await readJson(request, reportPdfBodySchema)).summary;
   if (Number(request.headers.get('content-length') ?? 0) > MAX_FORM_BYTES) throw new HttpError(413, 'too_large', 'The summary is too long: keep it under 2000 characters.');
   const text = await request.text();
   if (text.length > MAX_FORM_BYTES) throw new HttpError(413, 'too_large', 'The summary is too long: keep it under 2000 characters.');
-  return bodySchema.parse(Object.fromEntries(new URLSearchParams(text))).summary;
+  return reportPdfBodySchema.parse(Object.fromEntries(new URLSearchParams(text))).summary;
 }
 
 async function answer(request: Request, url: URL, params: Record<string, string | undefined>, locals: App.Locals, summary: () => Promise<string | undefined>) {
