@@ -44,7 +44,7 @@ export default defineConfig({
   },
   vite: {
     plugins: [tailwindcss()],
-    ssr: { external: ['@node-rs/argon2', 'pg-boss', 'pg', 'knex', 'pg-copy-streams', 'nodemailer'] },
+    ssr: { external: ['@node-rs/argon2', 'pg-boss', 'pg', 'knex', 'pg-copy-streams', 'nodemailer', 'pdfkit', 'fontkit'] },
     optimizeDeps: { exclude: ['@node-rs/argon2'] },
   },
 });

@@ -2,11 +2,13 @@
 // (own data folder, ports, database and bucket), then every test: unit,
 // integration against the real services, and browser tests in Chromium.
 import { spawn } from 'node:child_process';
+import { existsSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { appEnv, resolveConfig } from './lib/config.mjs';
 import { buildApp, dbTasks, startApp, startWorker } from './lib/app.mjs';
 import {
+  aptInstall,
   ensureChromiumInstalled,
   ensureDependencies,
   ensurePostgresInstalled,
@@ -48,6 +50,8 @@ try {
   const config = resolveConfig({}, { root, defaults: TEST_DEFAULTS });
   const pgBin = ensurePostgresInstalled();
   ensureChromiumInstalled();
+  // pdftotext, pdfinfo and pdftoppm read the report PDFs back in the tests.
+  if (!existsSync('/usr/bin/pdftotext')) aptInstall(['poppler-utils']);
   stopStaleCluster(pgBin, config);
   wipe(config.dataDir);
   const fresh = resolveConfig({}, { root, defaults: TEST_DEFAULTS });

@@ -68,7 +68,7 @@ describe('progress reports', () => {
     // Twelve weeks ending with this one; a finished week with its three prescribed sessions reads "Met".
     await expect(weekRows(page).count()).resolves.toBe(12);
     const header = await page.getByRole('table', { name: 'Sessions per week against the prescription' }).locator('thead th').allTextContents();
-    expect(header).toEqual(['Week from', 'Prescribed', 'Counted', 'Short', 'Outcome']);
+    expect(header).toEqual(['Week from', 'Prescribed', 'Counted', 'Short', 'Active min', 'Mean power (W)', 'Outcome']);
     const outcomes = await weekRows(page).locator('td:last-child').allTextContents();
     expect(outcomes.at(-1)).toMatch(/^(Under way|Met \(week under way\))$/);
     expect(outcomes).toContain('Met');

@@ -22,6 +22,9 @@ import { prescriptionInputSchema } from '../../src/lib/supervision/prescription-
 import type { Http } from '../support/http';
 import { createWorld, ROLES, type Role, type World } from '../support/world';
 import { MATRIX } from './authz/matrix';
+import { reportPdfBodySchema } from '../../src/lib/reports/report-data';
+import { energySettingsSchema } from '../../src/lib/reports/energy-settings';
+import { monitoringInputSchema } from '../../src/lib/monitoring/monitoring';
 
 let world: World;
 beforeAll(async () => {
@@ -120,6 +123,9 @@ const SCHEMAS: Record<string, ZodTypeAny> = {
   'PUT /api/import-profiles/[id]': profileInputSchema,
   'POST /api/import-profiles/preview': previewInputSchema,
   'POST /api/devices': deviceInputSchema,
+  'POST /api/clients/[id]/report.pdf': reportPdfBodySchema,
+  'POST /api/clients/[id]/monitoring': monitoringInputSchema,
+  'PUT /api/clinic/energy': energySettingsSchema,
 };
 
 /** The field paths of a zod schema: nested objects give dotted paths, records a `*` key, arrays of objects their first element. */

@@ -15,9 +15,10 @@ export interface ClientDetails {
   bodyMassKg: number | null;
   programStart: string | null;
   baselineSystolic: number | null;
+  volitionalControl: boolean | null;
 }
 
-const PATHS = ['injuryLevel', 'aisGrade', 'adRisk', 'bodyMassKg', 'programStart', 'baselineSystolic'];
+const PATHS = ['injuryLevel', 'aisGrade', 'adRisk', 'bodyMassKg', 'programStart', 'baselineSystolic', 'volitionalControl'];
 const orNull = (v: string) => (v.trim() === '' ? null : v.trim());
 const numberOrNull = (v: string) => (v.trim() === '' ? null : Number(v.replace(',', '.')));
 
@@ -33,6 +34,7 @@ export default function ClientDetailsForm(props: ClientDetails) {
   const [bodyMassKg, setBodyMassKg] = useState(props.bodyMassKg?.toString() ?? '');
   const [programStart, setProgramStart] = useState(props.programStart ?? '');
   const [baseline, setBaseline] = useState(props.baselineSystolic?.toString() ?? '');
+  const [volitional, setVolitional] = useState(props.volitionalControl === null ? '' : String(props.volitionalControl));
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<ApiError | null>(null);
 
@@ -48,6 +50,7 @@ export default function ClientDetailsForm(props: ClientDetails) {
         bodyMassKg: numberOrNull(bodyMassKg),
         programStart: orNull(programStart),
         baselineSystolic: numberOrNull(baseline),
+        volitionalControl: volitional === '' ? null : volitional === 'true',
       });
       // The header above is rendered on the server; show it with the new values.
       window.location.reload();
@@ -95,6 +98,19 @@ export default function ClientDetailsForm(props: ClientDetails) {
           error={error?.field('baselineSystolic')}
         />
         <TextField label="Body mass (kg)" optional inputMode="decimal" value={bodyMassKg} onChange={(e) => setBodyMassKg(e.target.value)} error={error?.field('bodyMassKg')} />
+        <SelectField
+          label="Pedals by own effort too"
+          optional
+          value={volitional}
+          onChange={(e) => setVolitional(e.target.value)}
+          options={[
+            { value: '', label: 'Not recorded' },
+            { value: 'true', label: 'Yes: some volitional control of the legs' },
+            { value: 'false', label: 'No' },
+          ]}
+          help="With yes and a body mass, reports show the volitional-cycling energy figure beside Kinloop’s FES estimate, for comparison."
+          error={error?.field('volitionalControl')}
+        />
         <TextField label="Program start" optional type="date" value={programStart} onChange={(e) => setProgramStart(e.target.value)} error={error?.field('programStart')} />
         <div className="sm:col-span-2">
           <Button type="submit" busy={busy}>

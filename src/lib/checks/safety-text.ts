@@ -49,3 +49,8 @@ export const PRE_PROGRAM_SCREENING: { title: string; intro: string; items: Scree
     { id: 'active_thrombosis', label: 'Active thrombosis (a blood clot)' },
   ],
 };
+
+/** Printed on every page of a report that leaves Kinloop as a file. */
+export const NOT_DIAGNOSTIC =
+  'Kinloop is not a diagnostic device. These figures come from the cycle\u2019s ride files and the records kept in Kinloop; ' +
+  'read them with the client\u2019s clinical picture and your clinic\u2019s own protocols.';

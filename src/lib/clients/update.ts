@@ -14,6 +14,8 @@ export const clientUpdateSchema = z
     bodyMassKg: clientInputSchema.shape.bodyMassKg.nullable(),
     programStart: clientInputSchema.shape.programStart.nullable(),
     primaryTherapistId: z.string().uuid().nullable().optional(),
+    /** Whether the rider also pedals by their own effort (the volitional-cycling equation is shown beside energy estimates then); null: not recorded. */
+    volitionalControl: z.boolean().nullable().optional(),
     /** The resting systolic pressure that rises are judged against (the therapist's value; without it the median of pre-ride readings). */
     baselineSystolic: z.number().int().min(70, 'Baseline systolic: enter 70–200 mmHg.').max(200, 'Baseline systolic: enter 70–200 mmHg.').nullable().optional(),
   })
@@ -29,6 +31,7 @@ const COLUMNS: Record<string, string> = {
   programStart: 'program_start',
   primaryTherapistId: 'primary_therapist_id',
   baselineSystolic: 'baseline_systolic',
+  volitionalControl: 'volitional_control',
 };
 
 export async function updateClient(ctx: RequestContext, clientId: string, input: z.infer<typeof clientUpdateSchema>) {

@@ -14,6 +14,7 @@ export function clientView(row: ClientRow) {
     timeZone: row.time_zone,
     bodyMassKg: row.body_mass_kg === null ? null : Number(row.body_mass_kg),
     programStart: row.program_start,
+    volitionalControl: row.volitional_control ?? null,
     primaryTherapistId: row.primary_therapist_id,
     baselineSystolic: row.baseline_systolic,
     hasAccount: row.user_id !== null,

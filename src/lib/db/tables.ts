@@ -9,6 +9,8 @@ export interface ClinicRow {
   id: string;
   name: string;
   time_zone: string;
+  /** Gross efficiency behind energy estimates; null: Kinloop's default. */
+  fes_efficiency_pct: string | null;
   created_at: Date;
 }
 
@@ -41,6 +43,8 @@ export interface ClientRow {
   ad_risk: AdRisk;
   time_zone: string;
   body_mass_kg: string | null;
+  /** Whether the rider also pedals by their own effort; null when not recorded. */
+  volitional_control: boolean | null;
   program_start: string | null;
   user_id: string | null;
   primary_therapist_id: string | null;
@@ -329,4 +333,19 @@ export interface NotificationPreferencesRow {
   urgent_alerts: boolean;
   unsubscribe_token: string;
   updated_at: Date;
+}
+
+export type MonitoringActivity = 'review' | 'phone_call' | 'message' | 'report';
+
+export interface MonitoringEntryRow {
+  id: string;
+  clinic_id: string;
+  client_id: string;
+  staff_user_id: string;
+  activity: MonitoringActivity;
+  source: 'timer' | 'manual';
+  started_at: Date;
+  seconds: number;
+  note: string | null;
+  created_at: Date;
 }

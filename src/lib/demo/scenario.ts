@@ -26,6 +26,8 @@ export interface DemoClient {
   adRisk: AdRisk;
   timeZone: string;
   bodyMassKg: number;
+  /** Pedals by their own effort too (reports then show the volitional-cycling figure for comparison). */
+  volitionalControl: boolean;
   /** Days before the seed date that the program started. */
   startedDaysAgo: number;
   therapist: 'therapist' | 'therapist2';
@@ -33,16 +35,16 @@ export interface DemoClient {
   account?: { email: string };
 }
 export const DEMO_CLIENTS: DemoClient[] = [
-  { key: 'jonah', name: 'Jonah Pryce', dateOfBirth: '1986-03-14', diagnosis: 'sci', injuryLevel: 'T4', aisGrade: 'A', adRisk: 'at_risk', timeZone: 'Europe/London', bodyMassKg: 74, startedDaysAgo: 182, therapist: 'therapist', account: { email: 'client@kinloop.test' } },
-  { key: 'dev', name: 'Dev Ramaswamy', dateOfBirth: '1979-11-02', diagnosis: 'sci', injuryLevel: 'C6', aisGrade: 'B', adRisk: 'at_risk', timeZone: 'Europe/London', bodyMassKg: 68, startedDaysAgo: 175, therapist: 'therapist' },
-  { key: 'mairi', name: 'Mairi Caldwell', dateOfBirth: '1971-06-25', diagnosis: 'ms', injuryLevel: null, aisGrade: null, adRisk: 'not_at_risk', timeZone: 'Europe/London', bodyMassKg: 61, startedDaysAgo: 168, therapist: 'therapist', account: { email: 'client2@kinloop.test' } },
-  { key: 'hollis', name: 'Hollis Ferreira', dateOfBirth: '1958-01-30', diagnosis: 'stroke', injuryLevel: null, aisGrade: null, adRisk: 'not_at_risk', timeZone: 'Europe/London', bodyMassKg: 82, startedDaysAgo: 160, therapist: 'therapist' },
-  { key: 'annika', name: 'Annika Brand', dateOfBirth: '1994-09-09', diagnosis: 'sci', injuryLevel: 'T10', aisGrade: 'C', adRisk: 'not_at_risk', timeZone: 'Europe/London', bodyMassKg: 57, startedDaysAgo: 150, therapist: 'therapist2' },
-  { key: 'kofi', name: 'Kofi Mensah-Lowe', dateOfBirth: '1990-04-18', diagnosis: 'sci', injuryLevel: 'T6', aisGrade: 'A', adRisk: 'at_risk', timeZone: 'Europe/London', bodyMassKg: 79, startedDaysAgo: 182, therapist: 'therapist' },
-  { key: 'elsie', name: 'Elsie Varga', dateOfBirth: '1966-12-05', diagnosis: 'ms', injuryLevel: null, aisGrade: null, adRisk: 'unknown', timeZone: 'Europe/London', bodyMassKg: 66, startedDaysAgo: 120, therapist: 'therapist2' },
-  { key: 'rafael', name: 'Rafael Quint', dateOfBirth: '2001-07-21', diagnosis: 'cerebral_palsy', injuryLevel: null, aisGrade: null, adRisk: 'not_at_risk', timeZone: 'Europe/London', bodyMassKg: 59, startedDaysAgo: 140, therapist: 'therapist2' },
-  { key: 'wren', name: 'Wren Tallis', dateOfBirth: '1983-02-11', diagnosis: 'sci', injuryLevel: 'L1', aisGrade: 'D', adRisk: 'not_at_risk', timeZone: 'Europe/London', bodyMassKg: 71, startedDaysAgo: 90, therapist: 'therapist' },
-  { key: 'noor', name: 'Noor Haddad', dateOfBirth: '1962-08-03', diagnosis: 'stroke', injuryLevel: null, aisGrade: null, adRisk: 'not_at_risk', timeZone: 'Europe/Dublin', bodyMassKg: 64, startedDaysAgo: 60, therapist: 'therapist2' },
+  { key: 'jonah', name: 'Jonah Pryce', dateOfBirth: '1986-03-14', diagnosis: 'sci', injuryLevel: 'T4', aisGrade: 'A', adRisk: 'at_risk', timeZone: 'Europe/London', volitionalControl: false, bodyMassKg: 74, startedDaysAgo: 182, therapist: 'therapist', account: { email: 'client@kinloop.test' } },
+  { key: 'dev', name: 'Dev Ramaswamy', dateOfBirth: '1979-11-02', diagnosis: 'sci', injuryLevel: 'C6', aisGrade: 'B', adRisk: 'at_risk', timeZone: 'Europe/London', volitionalControl: false, bodyMassKg: 68, startedDaysAgo: 175, therapist: 'therapist' },
+  { key: 'mairi', name: 'Mairi Caldwell', dateOfBirth: '1971-06-25', diagnosis: 'ms', injuryLevel: null, aisGrade: null, adRisk: 'not_at_risk', timeZone: 'Europe/London', volitionalControl: true, bodyMassKg: 61, startedDaysAgo: 168, therapist: 'therapist', account: { email: 'client2@kinloop.test' } },
+  { key: 'hollis', name: 'Hollis Ferreira', dateOfBirth: '1958-01-30', diagnosis: 'stroke', injuryLevel: null, aisGrade: null, adRisk: 'not_at_risk', timeZone: 'Europe/London', volitionalControl: true, bodyMassKg: 82, startedDaysAgo: 160, therapist: 'therapist' },
+  { key: 'annika', name: 'Annika Brand', dateOfBirth: '1994-09-09', diagnosis: 'sci', injuryLevel: 'T10', aisGrade: 'C', adRisk: 'not_at_risk', timeZone: 'Europe/London', volitionalControl: true, bodyMassKg: 57, startedDaysAgo: 150, therapist: 'therapist2' },
+  { key: 'kofi', name: 'Kofi Mensah-Lowe', dateOfBirth: '1990-04-18', diagnosis: 'sci', injuryLevel: 'T6', aisGrade: 'A', adRisk: 'at_risk', timeZone: 'Europe/London', volitionalControl: false, bodyMassKg: 79, startedDaysAgo: 182, therapist: 'therapist' },
+  { key: 'elsie', name: 'Elsie Varga', dateOfBirth: '1966-12-05', diagnosis: 'ms', injuryLevel: null, aisGrade: null, adRisk: 'unknown', timeZone: 'Europe/London', volitionalControl: true, bodyMassKg: 66, startedDaysAgo: 120, therapist: 'therapist2' },
+  { key: 'rafael', name: 'Rafael Quint', dateOfBirth: '2001-07-21', diagnosis: 'cerebral_palsy', injuryLevel: null, aisGrade: null, adRisk: 'not_at_risk', timeZone: 'Europe/London', volitionalControl: true, bodyMassKg: 59, startedDaysAgo: 140, therapist: 'therapist2' },
+  { key: 'wren', name: 'Wren Tallis', dateOfBirth: '1983-02-11', diagnosis: 'sci', injuryLevel: 'L1', aisGrade: 'D', adRisk: 'not_at_risk', timeZone: 'Europe/London', volitionalControl: true, bodyMassKg: 71, startedDaysAgo: 90, therapist: 'therapist' },
+  { key: 'noor', name: 'Noor Haddad', dateOfBirth: '1962-08-03', diagnosis: 'stroke', injuryLevel: null, aisGrade: null, adRisk: 'not_at_risk', timeZone: 'Europe/Dublin', volitionalControl: true, bodyMassKg: 64, startedDaysAgo: 60, therapist: 'therapist2' },
 ];
 
 export interface DemoCarer {

@@ -52,6 +52,7 @@ export async function seedDemoPeople(knex: Knex, { password, now = new Date() }:
           ad_risk: c.adRisk,
           time_zone: c.timeZone,
           body_mass_kg: c.bodyMassKg,
+          volitional_control: c.volitionalControl,
           program_start: DateTime.fromJSDate(now).setZone(c.timeZone).minus({ days: c.startedDaysAgo }).toISODate(),
           user_id: c.account ? users[c.key] : null,
           primary_therapist_id: users[c.therapist],

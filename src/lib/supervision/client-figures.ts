@@ -4,7 +4,7 @@ import { localDate } from '../time/iso-week';
 import { median } from '../analytics/median';
 import { accessClient } from '../auth/access';
 import type { RequestContext } from '../auth/context';
-import { loadHistory } from './history';
+import { loadHistory, type ClientHistory } from './history';
 import { overviewOf } from './overview';
 
 export const adherenceQuerySchema = z.object({ weeks: z.coerce.number().int().min(1).max(104).default(12) });
@@ -29,10 +29,15 @@ export async function clientTrends(ctx: RequestContext, clientId: string) {
   const client = await accessClient(ctx, clientId, 'read', 'trends.view');
   const h = await loadHistory(ctx.knex, client);
   const { overview } = overviewOf(h, new Date());
+  return { sessions: trendPointsOf(h), powerTrendWPerWeek: overview.powerTrendWPerWeek, thresholds: h.thresholds };
+}
+
+/** The per-session points of `clientTrends`, from a history already loaded (the report reads it once for everything). */
+export function trendPointsOf(h: ClientHistory) {
   const t = h.thresholds;
   const timeline = prescriptionTimeline(h.prescriptions);
   const countedPower: number[] = [];
-  const points = h.sessions.map((s) => {
+  return h.sessions.map((s) => {
     const target = timeline.versionOn(localDate(s.startedAt, h.client.time_zone));
     const window = countedPower.slice(-t.baselineSessions);
     const baseline = window.length >= t.baselineMinSessions ? median(window) : null;
@@ -51,5 +56,4 @@ export async function clientTrends(ctx: RequestContext, clientId: string) {
       currentPerWattMaPerW: s.currentPerWattMaPerW,
     };
   });
-  return { sessions: points, powerTrendWPerWeek: overview.powerTrendWPerWeek, thresholds: t };
 }

@@ -1,3 +1,4 @@
+import type { Knex } from 'knex';
 import { DateTime } from 'luxon';
 import { z } from 'zod';
 import { accessClient, accessClientRecord } from '../auth/access';
@@ -65,16 +66,19 @@ export async function actOnFlag(ctx: RequestContext, flagId: string, input: z.in
 /** Every flag of a client, newest first, each with its history. */
 export async function clientFlags(ctx: RequestContext, clientId: string) {
   const client = await accessClient(ctx, clientId, 'manage', 'flags.list');
-  const rows = await ctx.knex<FlagRow>('flags').where({ client_id: client.id }).orderBy('raised_at', 'desc');
+  return { flags: await flagsWithHistory(ctx.knex, client.id) };
+}
+
+/** The flags of a client the caller has already been given access to. */
+export async function flagsWithHistory(knex: Knex, clientId: string) {
+  const rows = await knex<FlagRow>('flags').where({ client_id: clientId }).orderBy('raised_at', 'desc');
   const events = rows.length
-    ? await ctx.knex('flag_events as e').leftJoin('users as u', 'u.id', 'e.actor_user_id').whereIn('e.flag_id', rows.map((r) => r.id)).orderBy('e.id').select('e.*', 'u.name as actor_name')
+    ? await knex('flag_events as e').leftJoin('users as u', 'u.id', 'e.actor_user_id').whereIn('e.flag_id', rows.map((r) => r.id)).orderBy('e.id').select('e.*', 'u.name as actor_name')
     : [];
-  return {
-    flags: rows.map((r) => ({
-      ...flagView(r),
-      history: events
-        .filter((e: FlagEventRow) => e.flag_id === r.id)
-        .map((e: FlagEventRow & { actor_name: string | null }) => ({ at: e.at.toISOString(), action: e.action, by: e.actor_user_id ? { userId: e.actor_user_id, name: e.actor_name } : null, note: e.note, detail: e.detail })),
-    })),
-  };
+  return rows.map((r) => ({
+    ...flagView(r),
+    history: events
+      .filter((e: FlagEventRow) => e.flag_id === r.id)
+      .map((e: FlagEventRow & { actor_name: string | null }) => ({ at: e.at.toISOString(), action: e.action, by: e.actor_user_id ? { userId: e.actor_user_id, name: e.actor_name } : null, note: e.note, detail: e.detail })),
+  }));
 }

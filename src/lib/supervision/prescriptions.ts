@@ -1,3 +1,4 @@
+import type { Knex } from 'knex';
 import { accessClient } from '../auth/access';
 import { auditAs, type RequestContext } from '../auth/context';
 import type { PrescriptionRow } from '../db/tables';
@@ -24,8 +25,9 @@ export function prescriptionView(row: PrescriptionRow & { created_by_name?: stri
 }
 export type PrescriptionView = ReturnType<typeof prescriptionView>;
 
-async function versions(ctx: RequestContext, clientId: string) {
-  return ctx.knex('prescriptions as p')
+/** Every version of a client's prescription with its author, newest first. */
+export async function prescriptionVersions(knex: Knex, clientId: string) {
+  return knex('prescriptions as p')
     .join('users as u', 'u.id', 'p.created_by')
     .where('p.client_id', clientId)
     .orderBy('p.version', 'desc')
@@ -35,7 +37,7 @@ async function versions(ctx: RequestContext, clientId: string) {
 /** The prescription in effect today (or the newest, when all start later) and every version, newest first. */
 export async function readPrescription(ctx: RequestContext, clientId: string, today: string) {
   const client = await accessClient(ctx, clientId, 'read', 'prescription.view');
-  const rows = await versions(ctx, client.id);
+  const rows = await prescriptionVersions(ctx.knex, client.id);
   const current = rows.find((r) => r.effective_from <= today) ?? null;
   const upcoming = rows.filter((r) => r.effective_from > today);
   return {

@@ -18,8 +18,10 @@ export function navFor(viewer: Viewer, options: { mailbox: boolean }): NavSectio
       title: 'Supervise',
       links: [
         { href: '/triage', label: 'Triage' },
+        { href: '/overview', label: 'Clinic overview' },
         { href: '/clients', label: 'Clients' },
         { href: '/reports', label: 'Reports' },
+        { href: '/monitoring', label: 'Monitoring time' },
         { href: '/upload', label: 'Upload rides' },
       ],
     });

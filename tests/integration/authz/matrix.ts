@@ -165,4 +165,20 @@ export const MATRIX: Record<string, MatrixEntry> = {
   'PUT /api/me/notifications': { request: () => ({ path: '/api/me/notifications', body: { reminders: true, weeklySummary: true, dailyDigest: true, urgentAlerts: true } }), expect: signedIn(200) },
   'GET /api/devices': { request: () => ({ path: '/api/devices' }), expect: staff(200) },
   'POST /api/devices': { request: () => ({ path: '/api/devices', body: { serial: `SN-${randomUUID().slice(0, 8)}` } }), expect: adminOnly(201) },
+
+  // Evidence out: the report PDF, exports, monitoring time, the clinic overview (issue 13).
+  'GET /api/clients/[id]/report.pdf': { request: (w) => ({ path: `/api/clients/${w.clientId}/report.pdf?weeks=4` }), expect: manage(200) },
+  'POST /api/clients/[id]/report.pdf': { request: (w) => ({ path: `/api/clients/${w.clientId}/report.pdf?weeks=4`, body: { summary: 'Steady month.' } }), expect: manage(200) },
+  'GET /api/clients/[id]/sessions.csv': { request: (w) => ({ path: `/api/clients/${w.clientId}/sessions.csv` }), expect: read(200) },
+  'GET /api/clients/[id]/fhir': { request: (w) => ({ path: `/api/clients/${w.clientId}/fhir` }), expect: read(200) },
+  'GET /api/clients/[id]/monitoring': { request: (w) => ({ path: `/api/clients/${w.clientId}/monitoring` }), expect: manage(200) },
+  'POST /api/clients/[id]/monitoring': {
+    request: (w) => ({ path: `/api/clients/${w.clientId}/monitoring`, body: { activity: 'review', seconds: 120, source: 'manual' } }),
+    expect: manage(201),
+  },
+  'GET /api/clinic/sessions.csv': { request: () => ({ path: '/api/clinic/sessions.csv' }), expect: adminOnly(200) },
+  'GET /api/clinic/overview.csv': { request: () => ({ path: '/api/clinic/overview.csv' }), expect: staff(200) },
+  'GET /api/monitoring.csv': { request: () => ({ path: '/api/monitoring.csv?by=client' }), expect: staff(200) },
+  'GET /api/clinic/energy': { request: () => ({ path: '/api/clinic/energy' }), expect: staff(200) },
+  'PUT /api/clinic/energy': { request: () => ({ path: '/api/clinic/energy', body: { efficiencyPct: null } }), expect: adminOnly(200) },
 };
