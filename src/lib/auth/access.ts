@@ -3,7 +3,7 @@
 // a client sees themself. Records the caller may not see are "not found" (404);
 // actions beyond the caller's role on records they may see are "forbidden" (403).
 import type { Knex } from 'knex';
-import type { ClientRow, StaffRole } from '../db/tables';
+import type { ClientRow, StaffRole, UploadRow } from '../db/tables';
 import { forbidden, notFound } from '../http/errors';
 import { auditAs, type RequestContext } from './context';
 import type { Viewer } from './viewer';
@@ -30,6 +30,16 @@ export function canReadClient(viewer: Viewer, client: Pick<ClientRow, 'id' | 'cl
 
 export function canManageClient(viewer: Viewer, client: Pick<ClientRow, 'clinic_id'>): boolean {
   return isStaffOf(viewer, client.clinic_id);
+}
+
+/** The stored bytes of a ride file: for the person who uploaded it and the client's clinic. */
+export function canDownloadRaw(viewer: Viewer, upload: Pick<UploadRow, 'uploaded_by'>, client: Pick<ClientRow, 'clinic_id'>): boolean {
+  return upload.uploaded_by === viewer.userId || canManageClient(viewer, client);
+}
+
+/** Reading a file again: the clinic for any file (after an import profile changed); the uploader for a file whose reading failed. */
+export function canReprocess(viewer: Viewer, upload: Pick<UploadRow, 'uploaded_by' | 'status'>, client: Pick<ClientRow, 'clinic_id'>): boolean {
+  return canManageClient(viewer, client) || (upload.uploaded_by === viewer.userId && upload.status === 'failed');
 }
 
 /** What a refusal names: the record asked for, so that "missing" and "not yours" read the same. */

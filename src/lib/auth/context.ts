@@ -18,10 +18,18 @@ export interface RequestLocals {
   userAgent: string | null;
 }
 
-/** The signed-in caller's context; a request without a valid session is a 401. */
+const contexts = new WeakMap<RequestLocals, RequestContext>();
+
+/**
+ * The signed-in caller's context, the same object for every call in one
+ * request (so its scope, and what it has audited, is shared); a request
+ * without a valid session is a 401.
+ */
 export function signedIn(locals: RequestLocals): RequestContext {
   if (!locals.viewer) throw unauthenticated();
-  return { knex: db(), viewer: locals.viewer, ip: locals.ip, userAgent: locals.userAgent };
+  let ctx = contexts.get(locals);
+  if (!ctx || ctx.viewer !== locals.viewer) contexts.set(locals, (ctx = { knex: db(), viewer: locals.viewer, ip: locals.ip, userAgent: locals.userAgent }));
+  return ctx;
 }
 
 export function auditAs(ctx: RequestContext, entry: Omit<AuditEntry, 'actorUserId' | 'ip' | 'userAgent'>, knex: Knex | Knex.Transaction = ctx.knex) {
