@@ -294,7 +294,7 @@ export class Scope {
   private readonly audited = new Set<string>();
 
   constructor(
-    private readonly ctx: RequestContext,
+    private readonly ctx: Pick<RequestContext, 'viewer' | 'ip' | 'userAgent'>,
     private readonly conn: Knex = pool(),
   ) {
     this.viewer = ctx.viewer;
