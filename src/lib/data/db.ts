@@ -6,7 +6,7 @@
 import type { Knex } from 'knex';
 
 /** A composable query of one table (join, aggregate, page it as with Knex). */
-export type Query<TRecord extends {} = any, TResult = any> = Knex.QueryBuilder<TRecord, TResult>;
+export type Query<TRecord extends {} = any, TResult = any[]> = Knex.QueryBuilder<TRecord, TResult>;
 
 /**
  * Tables by name (`db('rides')`, `db('rides as r')`), a transaction that hands
