@@ -14,7 +14,7 @@ export type Query<TRecord extends {} = any, TResult = any[]> = Knex.QueryBuilder
  * tests may pass their own pool to a system function.
  */
 export interface Db {
-  <TRecord extends {} = any, TResult = any[]>(table: string): Knex.QueryBuilder<TRecord, TResult>;
+  <TRecord extends {} = any, TResult = TRecord[]>(table: string): Knex.QueryBuilder<TRecord, TResult>;
   transaction<T>(fn: (tx: Db) => Promise<T>): Promise<T>;
   readonly fn: Knex.FunctionHelper;
 }

@@ -1,5 +1,5 @@
-import { staffClinic } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
 import { DEFAULT_FLAG_THRESHOLDS, flagThresholdsSchema, type FlagThresholds } from '../flags';
 import { scheduleFlagEvaluation } from './flag-jobs';
 
@@ -21,16 +21,15 @@ export const clinicSettingsInputSchema = flagThresholdsSchema.superRefine((t, ct
 });
 
 export async function readClinicSettings(ctx: RequestContext, clinicId?: string) {
-  const id = staffClinic(ctx.viewer, ['admin', 'therapist'], clinicId);
-  const clinic = await ctx.knex('clinics').where({ id }).first('id', 'name', 'time_zone', 'flag_thresholds');
+  const clinic = await scope(ctx).clinic(['admin', 'therapist'], clinicId).clinic();
   return { clinicId: clinic.id, name: clinic.name, timeZone: clinic.time_zone, flagThresholds: flagThresholdsSchema.parse(clinic.flag_thresholds), defaults: DEFAULT_FLAG_THRESHOLDS };
 }
 
 /** Changes the clinic's flag thresholds (admins); every client is judged again with them. */
 export async function saveClinicSettings(ctx: RequestContext, thresholds: FlagThresholds, clinicId?: string) {
-  const id = staffClinic(ctx.viewer, ['admin'], clinicId);
-  await ctx.knex('clinics').where({ id }).update({ flag_thresholds: JSON.stringify(thresholds) });
-  await auditAs(ctx, { action: 'clinic.settings_change', clinicId: id, detail: { flagThresholds: thresholds } });
-  for (const c of await ctx.knex('clients').where({ clinic_id: id }).whereNull('archived_at').select('id')) await scheduleFlagEvaluation(c.id, 0);
-  return readClinicSettings(ctx, id);
+  const clinic = scope(ctx).clinic(['admin'], clinicId);
+  await clinic.db('clinics').update({ flag_thresholds: JSON.stringify(thresholds) });
+  await clinic.audit({ action: 'clinic.settings_change', detail: { flagThresholds: thresholds } });
+  for (const c of await clinic.db('clients').select('id')) await scheduleFlagEvaluation(c.id, 0);
+  return readClinicSettings(ctx, clinic.id);
 }
