@@ -38,7 +38,7 @@ import type {
 import { forbidden, notFound } from '../http/errors';
 import { lock, makeDb, type Db, type Query, type TablePolicy } from './db';
 import { systemPolicy } from './system';
-import { auditLogOf, CLIENT_TABLES, CLINIC_TABLES, READ_RULES } from './visibility';
+import { adminClinicIds, auditLogOf, CLIENT_TABLES, CLINIC_TABLES, peopleOnlyOf, READ_RULES } from './visibility';
 
 const isUuid = (id: string) => /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id);
 const table = (name: string, alias?: string) => (alias ? `${name} as ${alias}` : name);
@@ -326,6 +326,14 @@ export class Scope {
   auditLog(clinicId: string | undefined, alias = 'audit_log'): { clinicId: string; query: Query<AuditRow> } {
     const id = staffClinic(this.viewer, ['admin'], clinicId);
     return { clinicId: id, query: auditLogOf(this.db(table('audit_log', alias)), alias, this.conn, [id]) };
+  }
+
+  /** The clinics the caller administers and the e-mail addresses of the people who belong to them alone (the dev mailbox's rule); 403 for anyone else. */
+  async adminsPeople(): Promise<{ clinics: string[]; addresses: Set<string> }> {
+    staffClinic(this.viewer, ['admin']);
+    const clinics = adminClinicIds(this.viewer);
+    const rows: { email: string }[] = await peopleOnlyOf(this.conn, clinics);
+    return { clinics, addresses: new Set(rows.map((r) => r.email)) };
   }
 
   /**

@@ -46,6 +46,36 @@ export function peopleOf(k: Knex, clinicIds: string[]) {
 }
 
 /**
+ * The lower-cased e-mail addresses of the people who belong to `clinicIds`
+ * and to no other clinic: staff, clients with an account, and the clients'
+ * active carers. Someone who also belongs elsewhere is left out (a reset link
+ * of theirs would open that clinic too). It reads every clinic's memberships
+ * to decide, and returns only people of `clinicIds`.
+ */
+export function peopleOnlyOf(k: Knex, clinicIds: string[]) {
+  return k
+    .with('belongs', (b) =>
+      b
+        .select('user_id', 'clinic_id')
+        .from('memberships')
+        .union((u) => u.select('user_id', 'clinic_id').from('clients').whereNotNull('user_id').whereNull('archived_at'))
+        .union((u) =>
+          u
+            .select('l.carer_user_id as user_id', 'c.clinic_id')
+            .from('carer_links as l')
+            .join('clients as c', 'c.id', 'l.client_id')
+            .where('l.active', true)
+            .whereNull('c.archived_at'),
+        ),
+    )
+    .from('users as u')
+    .join('belongs as b', 'b.user_id', 'u.id')
+    .groupBy('u.id', 'u.email')
+    .havingRaw('bool_and(b.clinic_id = ANY(?::uuid[]))', [clinicIds])
+    .select(k.raw('lower(u.email) as email'));
+}
+
+/**
  * A clinic's audit log as its admins see it: its own entries, and entries
  * without a clinic (sign-ins, refused requests) made by its people.
  */
