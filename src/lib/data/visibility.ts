@@ -107,7 +107,8 @@ export const READ_RULES: Record<string, Rule> = {
   // The clinic's records about a client: its staff only.
   client_notes: ofManagedClient,
   flags: ofManagedClient,
-  monitoring_entries: ofManagedClient,
+  // Its staff's time: the month's totals keep the time spent on a client who has left since.
+  monitoring_entries: ofStaffClinic,
   flag_events: (q, a, k, v) => void q.where((w) => w.whereIn(`${a}.flag_id`, k('flags').select('id').whereIn('client_id', managedClientIds(k, v)))),
   // Clinics: where the caller works, or whose client they care for or are.
   clinics: (q, a, k, v) => void q.where((w) => w.whereIn(`${a}.id`, some(staffClinicIds(v))).orWhereIn(`${a}.id`, clinicsInView(k, v))),
