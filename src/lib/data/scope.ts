@@ -154,17 +154,21 @@ function clinicPolicy(viewer: Viewer, clinicId: string, role: StaffRole): TableP
   };
 }
 
-/** The caller's own rows (notification settings): read and written by them alone. */
+/** The caller's own rows (notification settings, sign-in sessions): read and changed by them alone. */
 function ownPolicy(viewer: Viewer): TablePolicy {
   const holder = 'A grant on the caller’s own settings';
-  const own = new Set(['notification_preferences']);
   return {
     holder,
     restrict(t, a, q, conn) {
       readRule(t, holder)(q, a, conn, viewer);
       return true;
     },
-    writes: (t) => (own.has(t) ? { insert: (row) => stamp(row, 'user_id', viewer.userId, holder, t), change: true } : 'read'),
+    writes(t) {
+      if (t === 'notification_preferences') return { insert: (row) => stamp(row, 'user_id', viewer.userId, holder, t), change: true };
+      // Signing out ends one of the caller's sessions; sessions are made by signing in.
+      if (t === 'auth_sessions') return { insert: () => forbiddenWrite(holder, t), change: true };
+      return 'read';
+    },
   };
 }
 
@@ -259,7 +263,7 @@ export class ClinicGrant extends Grant<ClinicGrant> {
   }
 }
 
-/** The caller's own settings. */
+/** The caller's own settings and sessions. */
 export class OwnGrant extends Grant<OwnGrant> {
   readonly db: Db;
   constructor(scope: Scope, conn: Knex) {
@@ -394,7 +398,7 @@ export class Scope {
     return new ClinicGrant(this, this.conn, id, this.viewer.memberships.find((m) => m.clinicId === id)!.role);
   }
 
-  /** The caller's own settings. */
+  /** The caller's own settings and sessions. */
   own(): OwnGrant {
     return new OwnGrant(this, this.conn);
   }

@@ -1,5 +1,5 @@
 import { randomBytes } from 'node:crypto';
-import type { Db, Query } from '../data/db';
+import { scope, type Db } from '../data';
 import { z } from 'zod';
 import type { RequestContext } from '../auth/context';
 import type { NotificationPreferencesRow } from '../db/tables';
@@ -41,14 +41,15 @@ function view(p: NotificationPreferencesRow, ctx: RequestContext) {
 }
 
 export async function readPreferences(ctx: RequestContext) {
-  return view(await preferencesOf(ctx.knex, ctx.viewer.userId), ctx);
+  return view(await preferencesOf(scope(ctx).own().db, ctx.viewer.userId), ctx);
 }
 
 export async function savePreferences(ctx: RequestContext, input: z.infer<typeof preferencesInputSchema>) {
-  await preferencesOf(ctx.knex, ctx.viewer.userId);
-  const [row] = await ctx.knex<NotificationPreferencesRow>('notification_preferences')
+  const own = scope(ctx).own().db;
+  await preferencesOf(own, ctx.viewer.userId);
+  const [row] = await own<NotificationPreferencesRow>('notification_preferences')
     .where({ user_id: ctx.viewer.userId })
-    .update({ reminders: input.reminders, weekly_summary: input.weeklySummary, daily_digest: input.dailyDigest, urgent_alerts: input.urgentAlerts, updated_at: ctx.knex.fn.now() as never })
+    .update({ reminders: input.reminders, weekly_summary: input.weeklySummary, daily_digest: input.dailyDigest, urgent_alerts: input.urgentAlerts, updated_at: own.fn.now() as never })
     .returning('*');
   return view(row, ctx);
 }
