@@ -1,7 +1,7 @@
 import { useEffect, useState } from 'react';
 import { AD_SYMPTOM_LABELS, joinList, OTHER_EVENT_LABELS, SKIN_STATE_LABELS, siteLabel } from '../../lib/checks/labels';
 import { useApi } from '../api';
-import { instantDayTime } from '../rider/dates';
+import { formatDateTime } from '../../lib/time/format';
 import { EmptyState } from '../ui/EmptyState';
 import { Loaded } from '../ui/Loading';
 import type { RecentCheck } from './types';
@@ -63,7 +63,7 @@ function CheckItem({ check, timeZone, locale }: { check: RecentCheck; timeZone: 
   return (
     <li className="card space-y-2" data-testid="recent-check">
       <div className="flex flex-wrap items-baseline justify-between gap-2">
-        <h3 className="text-lg">{instantDayTime(check.takenAt, locale, timeZone)}</h3>
+        <h3 className="text-lg">{formatDateTime(check.takenAt, locale, timeZone, 'weekdayDayMonth')}</h3>
         {check.recordedBy?.name && <p className="text-sm text-ink-soft">Recorded by {check.recordedBy.name}</p>}
       </div>
       {conditions.length > 0 && (

@@ -5,7 +5,7 @@ import { number } from '../rides/format';
 import { PALETTE } from '../palette';
 import { baseOptions } from './chart-setup';
 import { ChartFrame, type ChartTable } from './ChartFrame';
-import { instantLabel, shortDay } from './dates';
+import { formatDateTime, formatInstantDate } from '../../lib/time/format';
 import type { TrendsData } from './types';
 
 const maw = (v: number | null) => (v === null ? '—' : `${number(v, 2)} mA/W`);
@@ -16,7 +16,7 @@ function sentence(trends: TrendsData, locale: string, timeZone: string): string 
   const first = shown[0];
   const last = shown[shown.length - 1];
   return [
-    `Stimulation current for each watt of power, over ${shown.length} ${shown.length === 1 ? 'session' : 'sessions'}: ${maw(first.currentPerWattMaPerW)} on ${shortDay(first.startedAt, locale, timeZone)}, ${maw(last.currentPerWattMaPerW)} in the latest.`,
+    `Stimulation current for each watt of power, over ${shown.length} ${shown.length === 1 ? 'session' : 'sessions'}: ${maw(first.currentPerWattMaPerW)} on ${formatInstantDate(first.startedAt, locale, timeZone, 'dayMonth')}, ${maw(last.currentPerWattMaPerW)} in the latest.`,
     `Lower means the muscles give more power for the same stimulation; a rise of ${trends.thresholds.currentRiseReviewPct} % over the usual level is flagged for review.`,
   ].join(' ');
 }
@@ -26,7 +26,7 @@ export function CurrentPerWattChart({ trends, locale, timeZone }: { trends: Tren
   const { sessions } = trends;
   const data = useMemo<ChartData<'line', (number | null)[], string>>(
     () => ({
-      labels: sessions.map((s) => shortDay(s.startedAt, locale, timeZone)),
+      labels: sessions.map((s) => formatInstantDate(s.startedAt, locale, timeZone, 'dayMonth')),
       datasets: [
         {
           label: 'Current per watt',
@@ -50,7 +50,7 @@ export function CurrentPerWattChart({ trends, locale, timeZone }: { trends: Tren
         legend: { display: false },
         tooltip: {
           callbacks: {
-            title: (items) => (items.length ? instantLabel(sessions[items[0].dataIndex].startedAt, locale, timeZone) : ''),
+            title: (items) => (items.length ? formatDateTime(sessions[items[0].dataIndex].startedAt, locale, timeZone, 'day') : ''),
             label: (item) => maw(item.parsed.y),
           },
         },
@@ -60,7 +60,7 @@ export function CurrentPerWattChart({ trends, locale, timeZone }: { trends: Tren
   const table: ChartTable = {
     caption: 'Current per watt per session',
     columns: ['Session', 'Current per watt'],
-    rows: sessions.map((s) => ({ key: s.sessionId, cells: [instantLabel(s.startedAt, locale, timeZone), maw(s.currentPerWattMaPerW)] })),
+    rows: sessions.map((s) => ({ key: s.sessionId, cells: [formatDateTime(s.startedAt, locale, timeZone, 'day'), maw(s.currentPerWattMaPerW)] })),
   };
   return (
     <ChartFrame id="current-chart" title="Current per watt" summary={sentence(trends, locale, timeZone)} table={table}>

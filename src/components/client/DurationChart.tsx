@@ -5,7 +5,7 @@ import { number } from '../rides/format';
 import { PALETTE } from '../palette';
 import { baseOptions } from './chart-setup';
 import { ChartFrame, type ChartTable } from './ChartFrame';
-import { instantLabel, shortDay } from './dates';
+import { formatDateTime, formatInstantDate } from '../../lib/time/format';
 import type { TrendsData } from './types';
 
 const min = (s: number | null) => (s === null ? '—' : `${number(s / 60, 0)} min`);
@@ -28,7 +28,7 @@ export function DurationChart({ trends, locale, timeZone }: { trends: TrendsData
   const { sessions, thresholds } = trends;
   const data = useMemo<ChartData<'bar' | 'line', (number | null)[], string>>(
     () => ({
-      labels: sessions.map((s) => shortDay(s.startedAt, locale, timeZone)),
+      labels: sessions.map((s) => formatInstantDate(s.startedAt, locale, timeZone, 'dayMonth')),
       datasets: [
         { type: 'line', label: 'Prescribed minutes', data: sessions.map((s) => toMinutes(s.targetS)), borderColor: PALETTE.ink, backgroundColor: PALETTE.ink, borderWidth: 2, pointRadius: 0, stepped: 'middle', order: 0 },
         {
@@ -58,7 +58,7 @@ export function DurationChart({ trends, locale, timeZone }: { trends: TrendsData
         tooltip: {
           filter: (item) => item.parsed.y !== null,
           callbacks: {
-            title: (items) => (items.length ? instantLabel(sessions[items[0].dataIndex].startedAt, locale, timeZone) : ''),
+            title: (items) => (items.length ? formatDateTime(sessions[items[0].dataIndex].startedAt, locale, timeZone, 'day') : ''),
             label: (item) => `${item.dataset.label}: ${number(item.parsed.y, 0)} min`,
             afterBody: (items) => (items.length ? `Active: ${min(sessions[items[0].dataIndex].activeS)}` : ''),
           },
@@ -71,7 +71,7 @@ export function DurationChart({ trends, locale, timeZone }: { trends: TrendsData
     columns: ['Session', 'Duration', 'Active', 'Prescribed', 'Counted'],
     rows: sessions.map((s) => ({
       key: s.sessionId,
-      cells: [instantLabel(s.startedAt, locale, timeZone), min(s.durationS), min(s.activeS), min(s.targetS), s.counted ? 'Yes' : 'No, too short'],
+      cells: [formatDateTime(s.startedAt, locale, timeZone, 'day'), min(s.durationS), min(s.activeS), min(s.targetS), s.counted ? 'Yes' : 'No, too short'],
     })),
   };
   return (

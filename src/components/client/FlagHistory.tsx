@@ -5,7 +5,8 @@ import { Button } from '../ui/Button';
 import { EmptyState } from '../ui/EmptyState';
 import { TextAreaField, TextField } from '../ui/Field';
 import { Loaded } from '../ui/Loading';
-import { addDays, dayLabel, instantLabel } from './dates';
+import { formatDate, formatDateTime } from '../../lib/time/format';
+import { addDays } from '../../lib/time/local-date';
 import { FLAG_KIND_WORDS, FLAG_SEVERITY_WORDS } from '../../lib/flags/words';
 import { eventLabel, isLive, SEVERITY_TONES, STATE_LABELS } from './flag-labels';
 import type { FlagWithHistory } from './types';
@@ -81,12 +82,12 @@ function FlagCard({ flag, locale, timeZone, today, onDone }: Shared & { flag: Fl
         </h3>
         <span className={`rounded-full border px-3 py-0.5 text-sm font-semibold ${SEVERITY_TONES[flag.severity]}`}>{FLAG_SEVERITY_WORDS[flag.severity]}</span>
         <span className="rounded-full border border-line-strong bg-surface px-3 py-0.5 text-sm font-semibold">{STATE_LABELS[flag.state]}</span>
-        {snoozed && <span className="rounded-full border border-slate bg-slate-tint px-3 py-0.5 text-sm font-semibold text-slate">Snoozed until {dayLabel(flag.snoozedUntil!, locale)}</span>}
+        {snoozed && <span className="rounded-full border border-slate bg-slate-tint px-3 py-0.5 text-sm font-semibold text-slate">Snoozed until {formatDate(flag.snoozedUntil!, locale, 'day')}</span>}
       </div>
       <p>{flag.reason}</p>
       <p className="text-sm text-ink-soft">
-        Raised {instantLabel(flag.raisedAt, locale, timeZone)}
-        {flag.clearedAt && `; the condition cleared ${instantLabel(flag.clearedAt, locale, timeZone)}`}
+        Raised {formatDateTime(flag.raisedAt, locale, timeZone, 'day')}
+        {flag.clearedAt && `; the condition cleared ${formatDateTime(flag.clearedAt, locale, timeZone, 'day')}`}
       </p>
       {flag.history.length > 0 && (
         <details>
@@ -95,10 +96,10 @@ function FlagCard({ flag, locale, timeZone, today, onDone }: Shared & { flag: Fl
             {flag.history.map((h, i) => (
               <li key={i}>
                 <span className="font-medium">{eventLabel(h.action)}</span>
-                {h.action === 'snoozed' && typeof h.detail?.until === 'string' && ` until ${dayLabel(h.detail.until, locale)}`}
+                {h.action === 'snoozed' && typeof h.detail?.until === 'string' && ` until ${formatDate(h.detail.until, locale, 'day')}`}
                 <span className="text-ink-soft">
                   {' '}
-                  · {instantLabel(h.at, locale, timeZone)} · {h.by?.name ?? 'Kinloop'}
+                  · {formatDateTime(h.at, locale, timeZone, 'day')} · {h.by?.name ?? 'Kinloop'}
                 </span>
                 {h.note && <p className="mt-1 whitespace-pre-line">“{h.note}”</p>}
               </li>

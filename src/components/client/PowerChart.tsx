@@ -5,7 +5,7 @@ import { number } from '../rides/format';
 import { PALETTE } from '../palette';
 import { baseOptions } from './chart-setup';
 import { ChartFrame, type ChartTable } from './ChartFrame';
-import { instantLabel, shortDay } from './dates';
+import { formatDateTime, formatInstantDate } from '../../lib/time/format';
 import type { TrendsData } from './types';
 
 const w = (v: number | null) => (v === null ? '—' : `${number(v, 1)} W`);
@@ -16,7 +16,7 @@ function sentence(trends: TrendsData, locale: string, timeZone: string): string 
   const first = withPower[0];
   const last = withPower[withPower.length - 1];
   const parts = [
-    `Mean power over ${withPower.length} ${withPower.length === 1 ? 'session' : 'sessions'}: ${w(first.meanPowerW)} on ${shortDay(first.startedAt, locale, timeZone)}, ${w(last.meanPowerW)} in the latest on ${shortDay(last.startedAt, locale, timeZone)}.`,
+    `Mean power over ${withPower.length} ${withPower.length === 1 ? 'session' : 'sessions'}: ${w(first.meanPowerW)} on ${formatInstantDate(first.startedAt, locale, timeZone, 'dayMonth')}, ${w(last.meanPowerW)} in the latest on ${formatInstantDate(last.startedAt, locale, timeZone, 'dayMonth')}.`,
   ];
   if (trends.powerTrendWPerWeek !== null) {
     const slope = trends.powerTrendWPerWeek;
@@ -36,7 +36,7 @@ export function PowerChart({ trends, locale, timeZone }: { trends: TrendsData; l
   const { sessions } = trends;
   const data = useMemo<ChartData<'line', (number | null)[], string>>(
     () => ({
-      labels: sessions.map((s) => shortDay(s.startedAt, locale, timeZone)),
+      labels: sessions.map((s) => formatInstantDate(s.startedAt, locale, timeZone, 'dayMonth')),
       datasets: [
         {
           label: 'Mean power',
@@ -81,7 +81,7 @@ export function PowerChart({ trends, locale, timeZone }: { trends: TrendsData; l
         ...base.plugins,
         tooltip: {
           callbacks: {
-            title: (items) => (items.length ? instantLabel(sessions[items[0].dataIndex].startedAt, locale, timeZone) : ''),
+            title: (items) => (items.length ? formatDateTime(sessions[items[0].dataIndex].startedAt, locale, timeZone, 'day') : ''),
             label: (item) => `${item.dataset.label}: ${w(item.parsed.y)}`,
             afterBody: (items) => (items.length && !sessions[items[0].dataIndex].counted ? 'This session was too short to count.' : ''),
           },
@@ -94,7 +94,7 @@ export function PowerChart({ trends, locale, timeZone }: { trends: TrendsData; l
     columns: ['Session', 'Mean power', 'Usual level', 'Review line', 'Counted'],
     rows: sessions.map((s) => ({
       key: s.sessionId,
-      cells: [instantLabel(s.startedAt, locale, timeZone), w(s.meanPowerW), w(s.baselineW), w(s.reviewBelowW), s.counted ? 'Yes' : 'No, too short'],
+      cells: [formatDateTime(s.startedAt, locale, timeZone, 'day'), w(s.meanPowerW), w(s.baselineW), w(s.reviewBelowW), s.counted ? 'Yes' : 'No, too short'],
     })),
   };
   const summary = sentence(trends, locale, timeZone);

@@ -6,7 +6,7 @@ import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { EmptyState } from '../ui/EmptyState';
 import { Loaded } from '../ui/Loading';
-import { dayLabel } from './dates';
+import { formatDate } from '../../lib/time/format';
 import type { PrescriptionLimits } from './prescription-limits';
 import { PrescriptionForm } from './PrescriptionForm';
 import { PrescriptionHistory } from './PrescriptionHistory';
@@ -24,7 +24,7 @@ function Details({ p, locale }: { p: PrescriptionVersionView; locale: string }) 
         <div><dt className="text-sm text-ink-soft">Warm-up</dt><dd className="font-medium">{or(p.warmupMinutes, 'min')}</dd></div>
         <div><dt className="text-sm text-ink-soft">Target cadence</dt><dd className="font-medium">{p.targetCadenceRpm === null ? 'Not set' : `${p.targetCadenceRpm}${p.cadenceToleranceRpm !== null ? ` ± ${p.cadenceToleranceRpm}` : ''} rpm`}</dd></div>
         <div><dt className="text-sm text-ink-soft">Resistance level</dt><dd className="font-medium">{or(p.resistance, '')}</dd></div>
-        <div><dt className="text-sm text-ink-soft">Effective from</dt><dd className="font-medium">{dayLabel(p.effectiveFrom, locale)} (version {p.version})</dd></div>
+        <div><dt className="text-sm text-ink-soft">Effective from</dt><dd className="font-medium">{formatDate(p.effectiveFrom, locale, 'day')} (version {p.version})</dd></div>
       </dl>
       {channels.length > 0 && (
         <div className="overflow-x-auto rounded-lg border border-line" role="region" aria-label="Stimulation limits per channel" tabIndex={0}>
@@ -78,7 +78,7 @@ export default function Prescription({ clientId, manage, limits, today, locale, 
         <div className="space-y-4">
           {saved && (
             <Alert tone="success" live>
-              Version {saved.version} saved; it applies from {dayLabel(saved.effectiveFrom, locale)}.
+              Version {saved.version} saved; it applies from {formatDate(saved.effectiveFrom, locale, 'day')}.
             </Alert>
           )}
           <div className="card space-y-4">
@@ -86,7 +86,7 @@ export default function Prescription({ clientId, manage, limits, today, locale, 
             {d.current ? <Details p={d.current} locale={locale} /> : !d.upcoming.length && <EmptyState title="No prescription yet">{manage ? 'Set the first version below.' : 'The clinic has not set a prescription yet.'}</EmptyState>}
             {d.upcoming.map((u) => (
               <div key={u.id} className="space-y-3 border-t border-line pt-4">
-                <h3 className="text-lg">Starting {dayLabel(u.effectiveFrom, locale)}</h3>
+                <h3 className="text-lg">Starting {formatDate(u.effectiveFrom, locale, 'day')}</h3>
                 <Details p={u} locale={locale} />
               </div>
             ))}

@@ -8,7 +8,7 @@ import { DataTable } from '../ui/DataTable';
 import { EmptyState } from '../ui/EmptyState';
 import { Loaded } from '../ui/Loading';
 import type { Loadable } from '../api';
-import { startDay, startTime } from './dates';
+import { formatInstantDate, formatTime } from '../../lib/time/format';
 import type { SessionRow, SessionsPage } from './types';
 
 const PAGE = 50;
@@ -57,8 +57,8 @@ export default function SessionsTable({ clientId, locale, timeZone }: { clientId
         header: 'Started',
         cell: (c) => (
           <a href={`/sessions/${c.row.original.id}`} className="inline-flex min-h-11 flex-col justify-center font-semibold whitespace-nowrap">
-            <span>{startDay(c.getValue(), locale, timeZone)}</span>
-            <span className="font-normal">{startTime(c.getValue(), locale, timeZone)}</span>
+            <span>{formatInstantDate(c.getValue(), locale, timeZone, 'day')}</span>
+            <span className="font-normal">{formatTime(c.getValue(), locale, timeZone)}</span>
           </a>
         ),
       }),

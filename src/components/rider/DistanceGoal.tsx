@@ -4,7 +4,8 @@ import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { Loaded } from '../ui/Loading';
 import { CustomRouteFields } from './CustomRouteFields';
-import { fullDate, localDate } from './dates';
+import { formatDate } from '../../lib/time/format';
+import { localDate } from '../../lib/time/local-date';
 import { km, nextMilestoneText, percent, remainingText, travelledText } from './goal-words';
 import { ProgressBar } from './ProgressBar';
 import { draftFromPoints, routeFromDraft, type RouteDraft } from './route-draft';
@@ -54,7 +55,7 @@ function GoalProgressView({ goal, locale }: { goal: Goal; locale: string }) {
             {nextMilestoneText(p, locale)}
           </p>
           <p>{remainingText(p, locale)}</p>
-          <p className="text-ink-soft">Counting rides from {fullDate(goal.countFrom, locale)}.</p>
+          <p className="text-ink-soft">Counting rides from {formatDate(goal.countFrom, locale, 'date')}.</p>
           <div>
             <h3 className="font-semibold">Milestones passed</h3>
             {p.passed.length ? (
@@ -187,9 +188,9 @@ function GoalForm({
 
       <fieldset className="space-y-2">
         <legend className="text-lg font-semibold">Count rides from</legend>
-        {programStart && <CountOption value="program" current={count} onChoose={setCount} label={`The start of my program (${fullDate(programStart, locale)})`} />}
-        <CountOption value="today" current={count} onChoose={setCount} label={`Today (${fullDate(today, locale)})`} />
-        {goal && initialCount === 'keep' && <CountOption value="keep" current={count} onChoose={setCount} label={`${fullDate(goal.countFrom, locale)}, as now`} />}
+        {programStart && <CountOption value="program" current={count} onChoose={setCount} label={`The start of my program (${formatDate(programStart, locale, 'date')})`} />}
+        <CountOption value="today" current={count} onChoose={setCount} label={`Today (${formatDate(today, locale, 'date')})`} />
+        {goal && initialCount === 'keep' && <CountOption value="keep" current={count} onChoose={setCount} label={`${formatDate(goal.countFrom, locale, 'date')}, as now`} />}
       </fieldset>
 
       <div className="flex flex-wrap items-center gap-4">

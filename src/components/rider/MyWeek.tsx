@@ -1,7 +1,8 @@
 import { useApi } from '../api';
 import { distance, minutes, withUnit } from '../rides/format';
 import { Loaded } from '../ui/Loading';
-import { instantDay, instantDayTime, localDate } from './dates';
+import { formatDateTime, formatInstantDate } from '../../lib/time/format';
+import { localDate } from '../../lib/time/local-date';
 import type { WeekData } from './types';
 import { WeekDots } from './WeekDots';
 import { nextDueWords, shortNote, streakWords, weekHeadline, type DueTone } from './week-words';
@@ -45,7 +46,7 @@ function WeekView({ week, locale }: { week: WeekData; locale: string }) {
               {week.sessions.map((s) => (
                 <li key={s.id} className="flex flex-wrap items-baseline justify-between gap-x-4 py-2">
                   <a href={`/sessions/${s.id}`} className="inline-flex min-h-12 items-center font-semibold">
-                    {s.startedAt ? instantDay(s.startedAt, locale, week.timeZone) : 'Ride without a start time'}
+                    {s.startedAt ? formatInstantDate(s.startedAt, locale, week.timeZone, 'weekdayDayMonth') : 'Ride without a start time'}
                   </a>
                   <span>
                     {minutes(s.activeS, locale)} active{s.counted ? '' : ', too short to count'}
@@ -88,7 +89,7 @@ function WeekView({ week, locale }: { week: WeekData; locale: string }) {
         </h2>
         {week.latest ? (
           <>
-            {week.latest.startedAt && <p className="text-lg">{instantDay(week.latest.startedAt, locale, week.timeZone)}</p>}
+            {week.latest.startedAt && <p className="text-lg">{formatInstantDate(week.latest.startedAt, locale, week.timeZone, 'weekdayDayMonth')}</p>}
             <dl className="grid grid-cols-1 gap-3 min-[400px]:grid-cols-3">
               <Figure label="Active minutes" value={minutes(week.latest.activeS, locale)} />
               <Figure label="Mean power" value={withUnit(week.latest.meanPowerW, 1, 'W', locale)} />
@@ -103,7 +104,7 @@ function WeekView({ week, locale }: { week: WeekData; locale: string }) {
         ) : (
           <p>No rides are in Kinloop yet. Once the ride files are uploaded, the latest one shows here.</p>
         )}
-        {week.lastUploadAt && <p className="text-sm text-ink-soft">Ride files last uploaded {instantDayTime(week.lastUploadAt, locale, week.timeZone)}.</p>}
+        {week.lastUploadAt && <p className="text-sm text-ink-soft">Ride files last uploaded {formatDateTime(week.lastUploadAt, locale, week.timeZone, 'weekdayDayMonth')}.</p>}
       </section>
 
       <nav aria-label="Things to do" className="grid gap-3 sm:grid-cols-3">

@@ -3,7 +3,7 @@ import { useApi } from '../api';
 import { duration, number } from '../rides/format';
 import { Loaded } from '../ui/Loading';
 import { PALETTE } from '../palette';
-import { fullDate, instantDay } from './dates';
+import { formatDate, formatInstantDate } from '../../lib/time/format';
 import { km } from './goal-words';
 import { GoalSummary } from './GoalSummary';
 import { MEASURES } from './progress-words';
@@ -48,15 +48,15 @@ function ProgressView({ data, timeZone, locale }: { data: ProgressData; timeZone
         </h2>
         <ul className="grid gap-4 md:grid-cols-3">
           <Best title="Longest active ride" value={longestActive ? duration(longestActive.activeS) : null}>
-            {longestActive && <RideLink id={longestActive.sessionId} day={instantDay(longestActive.startedAt, locale, timeZone)} />}
+            {longestActive && <RideLink id={longestActive.sessionId} day={formatInstantDate(longestActive.startedAt, locale, timeZone, 'weekdayDayMonth')} />}
           </Best>
           <Best title="Highest 5-second power" value={highestPower5s ? `${number(highestPower5s.peakPower5sW, 1, locale)} W` : null}>
-            {highestPower5s && <RideLink id={highestPower5s.sessionId} day={instantDay(highestPower5s.startedAt, locale, timeZone)} />}
+            {highestPower5s && <RideLink id={highestPower5s.sessionId} day={formatInstantDate(highestPower5s.startedAt, locale, timeZone, 'weekdayDayMonth')} />}
           </Best>
           <Best title="Most distance in a week" value={mostDistanceWeek ? km(mostDistanceWeek.distanceM, locale) : null}>
             {mostDistanceWeek && (
               <p>
-                Week of {fullDate(mostDistanceWeek.monday, locale)}, {mostDistanceWeek.sessions} {mostDistanceWeek.sessions === 1 ? 'ride' : 'rides'}
+                Week of {formatDate(mostDistanceWeek.monday, locale, 'date')}, {mostDistanceWeek.sessions} {mostDistanceWeek.sessions === 1 ? 'ride' : 'rides'}
               </p>
             )}
           </Best>

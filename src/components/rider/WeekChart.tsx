@@ -3,7 +3,7 @@ import { useMemo } from 'react';
 import { Bar, Line } from 'react-chartjs-2';
 import { PALETTE } from '../palette';
 import './chart-setup';
-import { fullDate, shortDate } from './dates';
+import { formatDate } from '../../lib/time/format';
 import { weeklySentence, type WeekMeasure } from './progress-words';
 import type { ProgressWeek } from './types';
 
@@ -31,7 +31,7 @@ export function WeekChart({
   weeks: ProgressWeek[];
   locale: string;
 }) {
-  const labels = useMemo(() => weeks.map((w) => shortDate(w.monday, locale)), [weeks, locale]);
+  const labels = useMemo(() => weeks.map((w) => formatDate(w.monday, locale, 'dayMonth')), [weeks, locale]);
   const values = useMemo(() => weeks.map((w) => (w.sessions > 0 ? measure.value(w) : kind === 'bar' ? 0 : null)), [weeks, measure, kind]);
   const summary = weeklySentence(weeks, measure, locale);
   const options = useMemo(
@@ -44,7 +44,7 @@ export function WeekChart({
           legend: { display: false },
           tooltip: {
             callbacks: {
-              title: (items: { dataIndex: number }[]) => (items.length ? `Week of ${fullDate(weeks[items[0].dataIndex].monday, locale)}` : ''),
+              title: (items: { dataIndex: number }[]) => (items.length ? `Week of ${formatDate(weeks[items[0].dataIndex].monday, locale, 'date')}` : ''),
               label: (item: { parsed: { y: number | null } }) => (item.parsed.y === null ? 'No rides' : measure.format(item.parsed.y, locale)),
             },
           },
@@ -104,7 +104,7 @@ export function WeekChart({
                 return (
                   <tr key={w.isoWeek} className="border-b border-line last:border-b-0">
                     <th scope="row" className="px-3 py-2 font-normal whitespace-nowrap">
-                      {fullDate(w.monday, locale)}
+                      {formatDate(w.monday, locale, 'date')}
                     </th>
                     <td className="px-3 py-2">{w.sessions}</td>
                     <td className="px-3 py-2 whitespace-nowrap">{w.sessions > 0 && v !== null ? measure.format(v, locale) : '—'}</td>

@@ -2,7 +2,7 @@
 // seeing it: the first and the latest week with rides, and the best week.
 // `weeks` run from the program's first week to the current one.
 import { number } from '../rides/format';
-import { shortDate } from './dates';
+import { formatDate } from '../../lib/time/format';
 import type { ProgressWeek } from './types';
 
 export interface WeekMeasure {
@@ -20,7 +20,7 @@ export function weeklySentence(weeks: ProgressWeek[], m: WeekMeasure, locale: st
   const best = rode.reduce((a, b) => ((m.value(b) as number) > (m.value(a) as number) ? b : a));
   // The last week listed is the current one, which is not over yet.
   const current = weeks[weeks.length - 1];
-  const at = (w: ProgressWeek) => `${m.format(m.value(w) as number, locale)} ${w === current ? 'so far this week' : `in the week of ${shortDate(w.monday, locale)}`}`;
+  const at = (w: ProgressWeek) => `${m.format(m.value(w) as number, locale)} ${w === current ? 'so far this week' : `in the week of ${formatDate(w.monday, locale, 'dayMonth')}`}`;
   if (rode.length === 1) return `Your ${m.what}: ${at(first)}.`;
   const parts = [`Your ${m.what} per week went from ${at(first)} to ${at(latest)}.`];
   if (best !== latest && best !== first) parts.push(`Your best week so far: ${at(best)}.`);

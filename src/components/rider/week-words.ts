@@ -1,6 +1,6 @@
 // The sentences that sum up a client's week, shared by the rider's home and
 // the carer's home so both say the same thing.
-import { dayMonth, dayWords } from './dates';
+import { dayWords, formatDate } from '../../lib/time/format';
 import type { WeekData } from './types';
 
 const sessions = (n: number) => `${n} ${n === 1 ? 'session' : 'sessions'}`;
@@ -33,7 +33,7 @@ export function nextDueWords(week: Pick<WeekData, 'nextDue'>, today: string, loc
     case 'paused':
       return {
         tone: 'paused',
-        headline: date ? `Program paused until ${dayMonth(date, locale)}` : 'Program paused for now',
+        headline: date ? `Program paused until ${formatDate(date, locale, 'weekdayDayMonth')}` : 'Program paused for now',
         detail: date ? 'No rides are due during the pause, and it does not break the streak.' : 'The clinic will say when rides start again. A pause does not break the streak.',
       };
     case 'week_met':

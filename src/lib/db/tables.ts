@@ -9,6 +9,8 @@ export interface ClinicRow {
   id: string;
   name: string;
   time_zone: string;
+  /** BCP 47; null takes the default from the time zone (src/lib/time/locale.ts). */
+  locale: string | null;
   created_at: Date;
 }
 

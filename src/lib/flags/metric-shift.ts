@@ -10,7 +10,9 @@
 // suspended), are left out.
 import { median } from '../analytics/median';
 import { sessionsAsOf, type Assessment, type FlagData } from './flag-data';
-import { milliampsPerWatt, percent, roundTo, watts } from './format';
+import { roundTo } from '../analytics/round';
+import { milliampsPerWatt, percent, watts } from '../format/numbers';
+import { REASON_LOCALE } from './words';
 import type { FlagCondition, FlagSession, MetricShiftEvidence } from './types';
 
 interface MetricRule {
@@ -29,7 +31,7 @@ const RULES: Record<MetricRule['kind'], MetricRule> = {
     kind: 'power_drop',
     metric: 'meanPowerW',
     label: 'mean power',
-    unit: watts,
+    unit: (v) => watts(v, REASON_LOCALE),
     direction: -1,
     reviewPct: (data) => data.thresholds.powerDropReviewPct,
     urgentPct: (data) => data.thresholds.powerDropUrgentPct,
@@ -38,7 +40,7 @@ const RULES: Record<MetricRule['kind'], MetricRule> = {
     kind: 'current_rise',
     metric: 'currentPerWattMaPerW',
     label: 'current per watt',
-    unit: milliampsPerWatt,
+    unit: (v) => milliampsPerWatt(v, REASON_LOCALE),
     direction: 1,
     reviewPct: (data) => data.thresholds.currentRiseReviewPct,
     urgentPct: () => null,
@@ -89,7 +91,7 @@ export function assessMetricShift(kind: MetricRule['kind'], data: FlagData, asOf
     kind,
     severity,
     anchor: latest[1].session.id,
-    reason: `${capitalise(rule.label)} was ${shown}, ${changes.map(percent).join(' and ')} ${side} the usual ${rule.unit(baseline)}.`,
+    reason: `${capitalise(rule.label)} was ${shown}, ${changes.map((c) => percent(c, REASON_LOCALE)).join(' and ')} ${side} the usual ${rule.unit(baseline)}.`,
     evidence: {
       metric: rule.metric,
       baseline,

@@ -14,7 +14,8 @@ import { reminderDue } from '../rider/reminder';
 import { readGoalFor } from '../riders/goal-progress';
 import { riderPauses } from '../riders/sessions';
 import { loadHistories } from '../supervision/history';
-import { isoWeekOf, localDate } from '../time/iso-week';
+import { isoWeekOf } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { notificationEmail, type Recipient } from './compose';
 import { riderAndCarers, riderOnly, therapistsOf } from './recipients';
 import { FLAG_KIND_WORDS } from '../flags/words';
@@ -90,7 +91,7 @@ async function reminders(knex: Knex, clients: ClientRow[], now: Date): Promise<n
     const last = h.sessions[h.sessions.length - 1];
     const next = nextSessionDue({ timeZone: client.time_zone, now, sessionsPerWeek: version.sessionsPerWeek, countedThisWeek: adherence.weeks[0].counted, lastSessionAt: last?.startedAt ?? null, pauses: riderPauses(h) });
     const sessionsToday = h.sessions.filter((s) => localDate(s.startedAt, client.time_zone) === today).length;
-    if (!reminderDue({ timeZone: client.time_zone, now, eveningHour: REMINDER_HOUR, nextDue: next.dueLocalDate, lastReminderSentAt: null, sessionsToday })) continue;
+    if (!reminderDue({ timeZone: client.time_zone, now, eveningHour: REMINDER_HOUR, nextDue: next.dueLocalDate, sessionsToday })) continue;
     for (const to of await riderAndCarers(knex, client, 'reminders')) {
       const self = to.userId === client.user_id;
       const id = await enqueueEmail(

@@ -1,6 +1,7 @@
 // A rider's personal bests. On a tie the earlier ride keeps the best, since
 // that is when it was first reached. Zero values are not bests.
-import { isoWeekLabel, localDateOf, mondayOf } from './calendar';
+import { isoWeekKey } from '../time/iso-week';
+import { localDate, mondayOf } from '../time/local-date';
 import type { RiderSession } from './types';
 
 type BestInput = Pick<RiderSession, 'id' | 'startedAt' | 'activeS' | 'peakPower5sW' | 'distanceM'>;
@@ -26,8 +27,8 @@ export function personalBests(sessions: BestInput[], timeZone: string): Personal
       highestPower5s = { sessionId: s.id, startedAt: s.startedAt, peakPower5sW: power };
     }
     if (s.startedAt !== null && s.distanceM !== null && s.distanceM > 0) {
-      const date = localDateOf(s.startedAt, timeZone);
-      const isoWeek = isoWeekLabel(date);
+      const date = localDate(s.startedAt, timeZone);
+      const isoWeek = isoWeekKey(date);
       const week = weeks.get(isoWeek) ?? { isoWeek, monday: mondayOf(date), distanceM: 0, sessions: 0 };
       week.distanceM += s.distanceM;
       week.sessions += 1;

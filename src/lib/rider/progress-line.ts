@@ -4,7 +4,7 @@
 // both have fallen it states the rides completed instead, because a rider's
 // home screen is not where a decline is judged (the therapist sees the trends).
 // No medical advice. Null until both months hold enough rides to compare.
-import { addDays, addMonths, localDateOf, type Instant } from './calendar';
+import { addDays, addMonths, localDate } from '../time/local-date';
 import type { RiderSession } from './types';
 
 type LineInput = Pick<RiderSession, 'startedAt' | 'activeS' | 'meanPowerW'>;
@@ -13,15 +13,15 @@ type LineInput = Pick<RiderSession, 'startedAt' | 'activeS' | 'meanPowerW'>;
 export const MIN_RIDES_PER_MONTH = 3;
 
 /** `programStart` is the program's first local date, 'YYYY-MM-DD'. */
-export function progressLine(sessions: LineInput[], programStart: string, now: Instant, timeZone: string): string | null {
-  const today = localDateOf(now, timeZone);
+export function progressLine(sessions: LineInput[], programStart: string, now: Date | string, timeZone: string): string | null {
+  const today = localDate(now, timeZone);
   const firstEnd = addMonths(programStart, 1);
   const latestStart = addDays(addMonths(today, -1), 1);
   if (latestStart < firstEnd) return null;
 
   const dated = sessions
     .filter((s) => s.startedAt !== null)
-    .map((s) => ({ ...s, date: localDateOf(s.startedAt as string, timeZone) }))
+    .map((s) => ({ ...s, date: localDate(s.startedAt as string, timeZone) }))
     .filter((s) => s.date >= programStart && s.date <= today);
   const first = dated.filter((s) => s.date < firstEnd);
   const latest = dated.filter((s) => s.date >= latestStart);

@@ -1,5 +1,5 @@
 import type { ClientHistory } from '../supervision/history';
-import type { Pause as RiderPause } from '../rider/calendar';
+import type { Pause as RiderPause } from '../rider/pauses';
 import type { RiderSession } from '../rider/types';
 
 export function riderSessions(h: ClientHistory): RiderSession[] {

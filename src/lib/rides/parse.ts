@@ -4,7 +4,8 @@
 import { readNumericColumn, readTimeColumn } from './columns';
 import { tokenise } from './csv';
 import { decodeBytes, looksLikeText } from './decode';
-import { median, PAUSE_S } from './deltas';
+import { median } from '../analytics/median';
+import { PAUSE_S } from './deltas';
 import { describeField, quantityOf, type ColumnReading } from './headers';
 import { commasToPoints, findLayout, usesDecimalComma, type PreambleLine } from './layout';
 import { deviceOf, readPreamble, startOf } from './metadata';
@@ -88,7 +89,7 @@ function readTimeline(rows: string[][], timeIndex: number, reading: ColumnReadin
     const steps = new Float64Array(n - 1);
     for (let k = 0; k < n - 1; k++) steps[k] = time.raw[keep[k + 1]] - time.raw[keep[k]];
     const step = median(steps);
-    if (step > PAUSE_S) {
+    if (step !== null && step > PAUSE_S) {
       format = 'milliseconds';
       warnings.push(
         `The time column "${reading.header}" states no unit and its median step of ${step} would make every step a pause if read as seconds; it was read as milliseconds.`,

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { prescriptionTimeline, sessionStatus } from '../adherence';
-import { localDate } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { median } from '../analytics/median';
 import { accessClient } from '../auth/access';
 import type { RequestContext } from '../auth/context';
