@@ -33,6 +33,10 @@ export interface AppConfig {
   sessionIdleHours: number;
   sessionAbsoluteDays: number;
   runWorkerInServer: boolean;
+  /** Connections in the database pool. */
+  dbPool: number;
+  /** The outbox's first retry delay; later ones double. */
+  outboxRetryMs: number;
 }
 
 let cached: AppConfig | null = null;
@@ -64,6 +68,8 @@ export function config(): AppConfig {
     sessionIdleHours: int('KINLOOP_SESSION_IDLE_HOURS', 24 * 7),
     sessionAbsoluteDays: int('KINLOOP_SESSION_ABSOLUTE_DAYS', 30),
     runWorkerInServer: process.env.KINLOOP_WORKER !== 'off',
+    dbPool: int('KINLOOP_DB_POOL', 10),
+    outboxRetryMs: int('KINLOOP_OUTBOX_RETRY_MS', 15_000),
   };
   return cached;
 }

@@ -42,7 +42,7 @@ const pausedLabels: Plugin<'bar'> = {
 };
 
 /** Sessions that counted each week against the prescribed number; paused weeks are drawn as pauses, not misses. */
-export function AdherenceChart({ adherence, locale, currentIsoWeek }: { adherence: AdherenceData; locale: string; currentIsoWeek: string }) {
+export function AdherenceChart({ adherence, locale, currentIsoWeek, compact = false }: { adherence: AdherenceData; locale: string; currentIsoWeek: string; compact?: boolean }) {
   const { weeks } = adherence;
   const top = Math.max(1, ...weeks.map((w) => Math.max(w.prescribed, w.counted)));
   const data = useMemo<ChartData<'bar', (number | null)[], string>>(
@@ -92,7 +92,7 @@ export function AdherenceChart({ adherence, locale, currentIsoWeek }: { adherenc
     })),
   };
   return (
-    <ChartFrame id="adherence-chart" title="Sessions per week" summary={summary} table={table}>
+    <ChartFrame id="adherence-chart" title="Sessions per week" summary={summary} table={table} compact={compact}>
       <Bar data={data} options={options} plugins={[pausedLabels]} role="img" aria-label="Bar chart of counted sessions per week against the prescribed number, with paused weeks marked; the sentence above and the table below give the numbers." />
     </ChartFrame>
   );

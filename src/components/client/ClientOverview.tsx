@@ -18,7 +18,7 @@ function Figure({ label, value, detail }: { label: string; value: string; detail
 }
 
 /** The program at a glance: the prescription in effect, the streak and the last four weeks' adherence. */
-export default function ClientOverview({ clientId, locale }: { clientId: string; locale: string }) {
+export default function ClientOverview({ clientId, locale, prescriptionHref }: { clientId: string; locale: string; prescriptionHref: string }) {
   const [prescription, reloadPrescription] = useApi<PrescriptionData>(`/api/clients/${clientId}/prescription`);
   const [adherence, reloadAdherence] = useApi<AdherenceData>(`/api/clients/${clientId}/adherence?weeks=12`);
   useOnProgramChange(reloadPrescription);
@@ -47,7 +47,7 @@ export default function ClientOverview({ clientId, locale }: { clientId: string;
                     From {formatDate(u.effectiveFrom, locale, 'day')}: {doseSummary(u)} (version {u.version})
                   </span>
                 ))}
-                <a href="#prescription" className="mt-1 inline-flex min-h-12 items-center font-medium">
+                <a href={prescriptionHref} className="mt-1 inline-flex min-h-12 items-center font-medium">
                   Prescription details
                 </a>
               </>

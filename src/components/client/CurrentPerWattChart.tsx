@@ -1,16 +1,16 @@
 import type { ChartData, ChartOptions } from 'chart.js';
 import { useMemo } from 'react';
 import { Line } from 'react-chartjs-2';
-import { number } from '../rides/format';
+import { milliampsPerWatt } from '../../lib/format/numbers';
 import { PALETTE } from '../palette';
 import { baseOptions } from './chart-setup';
 import { ChartFrame, type ChartTable } from './ChartFrame';
 import { formatDateTime, formatInstantDate } from '../../lib/time/format';
 import type { TrendsData } from './types';
 
-const maw = (v: number | null) => (v === null ? '—' : `${number(v, 2)} mA/W`);
 
 function sentence(trends: TrendsData, locale: string, timeZone: string): string {
+  const maw = (v: number | null) => milliampsPerWatt(v, locale);
   const shown = trends.sessions.filter((s) => s.currentPerWattMaPerW !== null);
   if (!shown.length) return 'No session has both current and power readings yet.';
   const first = shown[0];
@@ -22,8 +22,9 @@ function sentence(trends: TrendsData, locale: string, timeZone: string): string 
 }
 
 /** The sum of the channels' mean current divided by mean power, per session. */
-export function CurrentPerWattChart({ trends, locale, timeZone }: { trends: TrendsData; locale: string; timeZone: string }) {
+export function CurrentPerWattChart({ trends, locale, timeZone, compact = false }: { trends: TrendsData; locale: string; timeZone: string; compact?: boolean }) {
   const { sessions } = trends;
+  const maw = (v: number | null) => milliampsPerWatt(v, locale);
   const data = useMemo<ChartData<'line', (number | null)[], string>>(
     () => ({
       labels: sessions.map((s) => formatInstantDate(s.startedAt, locale, timeZone, 'dayMonth')),
@@ -63,7 +64,7 @@ export function CurrentPerWattChart({ trends, locale, timeZone }: { trends: Tren
     rows: sessions.map((s) => ({ key: s.sessionId, cells: [formatDateTime(s.startedAt, locale, timeZone, 'day'), maw(s.currentPerWattMaPerW)] })),
   };
   return (
-    <ChartFrame id="current-chart" title="Current per watt" summary={sentence(trends, locale, timeZone)} table={table}>
+    <ChartFrame id="current-chart" title="Current per watt" compact={compact} summary={sentence(trends, locale, timeZone)} table={table}>
       <Line data={data} options={options} role="img" aria-label="Line chart of stimulation current per watt for each session; the sentence above and the table below give the numbers." />
     </ChartFrame>
   );

@@ -15,7 +15,7 @@ export function db(): Knex {
     instance = knexFactory({
       client: 'pg',
       connection: config().databaseUrl,
-      pool: { min: 0, max: Number(process.env.KINLOOP_DB_POOL ?? 10) },
+      pool: { min: 0, max: config().dbPool },
     });
   }
   return instance;

@@ -47,6 +47,18 @@ const RULES: Record<MetricRule['kind'], MetricRule> = {
   },
 };
 
+/**
+ * The sessions the usual level is the median of: up to `baselineSessions` of
+ * the eligible ones (counted, unpaused, with the metric; oldest first) before
+ * the latest two; null while fewer than `baselineMinSessions` come before them.
+ * The client page's chart takes its baseline line from here too, so a
+ * baseline reads the same in the flag and in the chart.
+ */
+export function usualLevel(eligibleValues: number[], thresholds: Pick<FlagData['thresholds'], 'baselineSessions' | 'baselineMinSessions'>): number | null {
+  const before = eligibleValues.slice(0, -2).slice(-thresholds.baselineSessions);
+  return before.length >= thresholds.baselineMinSessions ? median(before) : null;
+}
+
 function valueOf(session: FlagSession, metric: MetricRule['metric']): number | null {
   const value = session[metric];
   return typeof value === 'number' && Number.isFinite(value) ? value : null;
@@ -68,7 +80,7 @@ export function assessMetricShift(kind: MetricRule['kind'], data: FlagData, asOf
       status: `only ${before.length} counted sessions came before the last two, and ${data.thresholds.baselineMinSessions} are needed to know the usual ${rule.label}`,
     };
   }
-  const baseline = median(before.map((s) => valueOf(s.session, rule.metric)!))!;
+  const baseline = usualLevel(eligible.map((s) => valueOf(s.session, rule.metric)!), data.thresholds)!;
   const values = latest.map((s) => valueOf(s.session, rule.metric)!);
   const shown = `${values.map(rule.unit).join(' and ')} in the last two sessions`;
   if (baseline <= 0) {
