@@ -84,7 +84,7 @@ describe('the rider’s pages', () => {
     expect(await headline.textContent()).toMatch(/^(\d+ of \d+ sessions? done this week|\d+ sessions? done this week.*|No sessions yet this week)$/);
     expect(await page.getByTestId('next-due').textContent()).toMatch(/Next ride|rides are done|paused|No rides are set/);
     expect(await page.getByTestId('streak').textContent()).toMatch(/week streak|No streak yet/);
-    const latest = page.getByRole('link', { name: 'See this ride in full' });
+    const latest = page.getByRole('link', { name: 'See this session in full' });
     expect(await latest.getAttribute('href')).toMatch(/^\/sessions\/[0-9a-f-]{36}$/);
     for (const name of ['Record how a ride went', 'Upload rides', 'My prescription']) {
       const box = await page.getByRole('navigation', { name: 'Things to do' }).getByRole('link', { name }).boundingBox();
@@ -105,7 +105,7 @@ describe('the rider’s pages', () => {
     }
     const bests = page.getByTestId('best');
     await expect(bests.count()).resolves.toBe(3);
-    expect(await bests.nth(0).textContent()).toMatch(/Longest active ride\d+ (min|h)/);
+    expect(await bests.nth(0).textContent()).toMatch(/Longest active session\d+ (min|h)/);
     expect(await bests.nth(1).textContent()).toMatch(/Highest 5-second power[\d.]+ W/);
     await page.getByRole('heading', { name: 'Distance goal' }).waitFor();
     await checkAtEveryWidth('progress');

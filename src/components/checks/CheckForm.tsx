@@ -4,6 +4,7 @@ import { AD_SYMPTOM_LABELS, OTHER_EVENT_LABELS } from '../../lib/checks/labels';
 import { api, ApiError, useApi } from '../api';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
+import CautionBanner from '../ui/CautionBanner';
 import { EmptyState } from '../ui/EmptyState';
 import { SelectField, TextAreaField } from '../ui/Field';
 import { NAMED_CHANNELS } from '../../lib/rides/types';
@@ -63,6 +64,8 @@ function ChecksForClients({ clients, initialClientId, viewerClientId, locale }: 
       {client ? (
         <>
           <CheckEntry key={client.id} client={client} self={self} locale={locale} onSaved={() => setVersion((v) => v + 1)} />
+          {/* Right under the form rather than above it: the caution's disclosure would be one more stop before the first reading. */}
+          <CautionBanner compact />
           <section aria-labelledby="recent-h" className="space-y-3">
             <h2 id="recent-h" className="text-xl">
               {self ? 'Your recent checks' : `Recent checks for ${client.name}`}
@@ -82,7 +85,6 @@ function CheckEntry({ client, self, locale, onSaved }: { client: CheckClient; se
   // "Nothing of these" as one choice that folds each list away: the short path for the usual, uneventful ride.
   const [noSigns, setNoSigns] = useState(false);
   const [skinNormal, setSkinNormal] = useState(false);
-  const [duringOpen, setDuringOpen] = useState(false);
   const [sessions] = useApi<SessionsPage>(`/api/clients/${client.id}/sessions?limit=5`);
   const [errors, setErrors] = useState<DraftErrors>({});
   const [outcome, setOutcome] = useState<Outcome | null>(null);
@@ -106,7 +108,6 @@ function CheckEntry({ client, self, locale, onSaved }: { client: CheckClient; se
   function showErrors(found: DraftErrors) {
     setErrors(found);
     if (Object.keys(found).some((k) => BP_KEYS.includes(k as NumberKey) || k.startsWith('bp'))) setBpOpen(true);
-    if (Object.keys(found).some((k) => k.startsWith('bpDuring'))) setDuringOpen(true);
     if (Object.keys(found).some((k) => k.startsWith('skin'))) {
       setSkinOpen(true);
       setSkinNormal(false);
@@ -138,33 +139,35 @@ function CheckEntry({ client, self, locale, onSaved }: { client: CheckClient; se
     }
   }
 
+  // Blood pressure before and after is the heart of a check; the other readings come after the first Save.
   const bloodPressure = (
     <div className="space-y-6">
       <Group id="check-before" title="Before the ride" hint="The top (systolic) and bottom (diastolic) numbers from the blood pressure monitor.">
         <div className="grid grid-cols-2 items-end gap-4 sm:flex sm:flex-wrap">
           <NumberInput field="bpBefore.systolic" value={draft.numbers['bpBefore.systolic']} error={errors['bpBefore.systolic']} onChange={setNumber} />
           <NumberInput field="bpBefore.diastolic" value={draft.numbers['bpBefore.diastolic']} error={errors['bpBefore.diastolic'] ?? errors.bpBefore} onChange={setNumber} />
-          <NumberInput field="heartRateBefore" value={draft.numbers.heartRateBefore} error={errors.heartRateBefore} onChange={setNumber} />
         </div>
       </Group>
       <Group id="check-after" title="After the ride">
         <div className="grid grid-cols-2 items-end gap-4 sm:flex sm:flex-wrap">
           <NumberInput field="bpAfter.systolic" value={draft.numbers['bpAfter.systolic']} error={errors['bpAfter.systolic']} onChange={setNumber} />
           <NumberInput field="bpAfter.diastolic" value={draft.numbers['bpAfter.diastolic']} error={errors['bpAfter.diastolic'] ?? errors.bpAfter} onChange={setNumber} />
-          <NumberInput field="heartRateAfter" value={draft.numbers.heartRateAfter} error={errors.heartRateAfter} onChange={setNumber} />
-          <NumberInput field="bpAfterMinutes" value={draft.numbers.bpAfterMinutes} error={errors.bpAfterMinutes} onChange={setNumber} />
         </div>
       </Group>
-      {/* Seldom taken, so folded: one stop instead of two for everyone who did not take it. */}
-      <Fold title="A reading during the ride" open={duringOpen} onToggle={setDuringOpen} small>
-        <Group id="check-during" title="During the ride">
-          <div className="grid grid-cols-2 items-end gap-4 sm:flex sm:flex-wrap">
-            <NumberInput field="bpDuring.systolic" value={draft.numbers['bpDuring.systolic']} error={errors['bpDuring.systolic']} onChange={setNumber} />
-            <NumberInput field="bpDuring.diastolic" value={draft.numbers['bpDuring.diastolic']} error={errors['bpDuring.diastolic'] ?? errors.bpDuring} onChange={setNumber} />
-          </div>
-        </Group>
-      </Fold>
     </div>
+  );
+  const moreReadings = (
+    <Group id="check-more" title="More readings, if taken">
+      <div className="grid grid-cols-2 items-end gap-4 sm:flex sm:flex-wrap">
+        <NumberInput field="heartRateBefore" value={draft.numbers.heartRateBefore} error={errors.heartRateBefore} onChange={setNumber} />
+        <NumberInput field="heartRateAfter" value={draft.numbers.heartRateAfter} error={errors.heartRateAfter} onChange={setNumber} />
+        <NumberInput field="bpAfterMinutes" value={draft.numbers.bpAfterMinutes} error={errors.bpAfterMinutes} onChange={setNumber} />
+      </div>
+      <div id="check-during" className="grid grid-cols-2 items-end gap-4 sm:flex sm:flex-wrap">
+        <NumberInput field="bpDuring.systolic" value={draft.numbers['bpDuring.systolic']} error={errors['bpDuring.systolic']} onChange={setNumber} />
+        <NumberInput field="bpDuring.diastolic" value={draft.numbers['bpDuring.diastolic']} error={errors['bpDuring.diastolic'] ?? errors.bpDuring} onChange={setNumber} />
+      </div>
+    </Group>
   );
   const symptoms = (
     <Group
@@ -268,7 +271,10 @@ function CheckEntry({ client, self, locale, onSaved }: { client: CheckClient; se
             {symptoms}
             {comment}
             <Fold title="Blood pressure and heart rate" open={bpOpen} onToggle={setBpOpen}>
-              {bloodPressure}
+              <div className="space-y-6">
+                {bloodPressure}
+                {moreReadings}
+              </div>
             </Fold>
             <Fold title="Skin at the electrode sites" open={skinOpen} onToggle={setSkinOpen}>
               {skin}
@@ -283,8 +289,9 @@ function CheckEntry({ client, self, locale, onSaved }: { client: CheckClient; se
             {/* A save before the optional extras, so an uneventful check ends here. */}
             <div className="flex flex-wrap items-center gap-x-4 gap-y-2 border-t border-line pt-4">
               {save}
-              <span className="text-ink-soft">or add the effort, a comment and the session below.</span>
+              <span className="text-ink-soft">or add more readings, the effort, a comment and the session below.</span>
             </div>
+            {moreReadings}
             {effort}
             {comment}
             {sessionChoice}
@@ -343,10 +350,10 @@ function OneChoice({ checked, onChange, children }: { checked: boolean; onChange
   );
 }
 
-function Fold({ title, open, onToggle, small = false, children }: { title: string; open: boolean; onToggle: (open: boolean) => void; small?: boolean; children: ReactNode }) {
+function Fold({ title, open, onToggle, children }: { title: string; open: boolean; onToggle: (open: boolean) => void; children: ReactNode }) {
   return (
     <details open={open} onToggle={(e) => onToggle(e.currentTarget.open)} className="group rounded-lg border-2 border-line">
-      <summary className={`flex min-h-14 cursor-pointer list-none items-center gap-3 px-4 font-semibold text-lagoon-dark [&::-webkit-details-marker]:hidden ${small ? '' : 'text-lg'}`}>
+      <summary className="flex min-h-14 cursor-pointer list-none items-center gap-3 px-4 text-lg font-semibold text-lagoon-dark [&::-webkit-details-marker]:hidden">
         <svg aria-hidden="true" width="20" height="20" viewBox="0 0 20 20" className="shrink-0 transition-transform group-open:rotate-90">
           <path d="M7 4l6 6-6 6" fill="none" stroke="currentColor" strokeWidth="2.5" strokeLinecap="round" strokeLinejoin="round" />
         </svg>

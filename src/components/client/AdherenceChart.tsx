@@ -93,7 +93,9 @@ export function AdherenceChart({ adherence, locale, currentIsoWeek, compact = fa
   };
   return (
     <ChartFrame id="adherence-chart" title="Sessions per week" summary={summary} table={table} compact={compact}>
-      <Bar data={data} options={options} plugins={[pausedLabels]} role="img" aria-label="Bar chart of counted sessions per week against the prescribed number, with paused weeks marked; the sentence above and the table below give the numbers." />
+      {weeks.some((w) => w.prescribed > 0 || w.counted > 0 || w.paused) ? (
+        <Bar data={data} options={options} plugins={[pausedLabels]} role="img" aria-label="Bar chart of counted sessions per week against the prescribed number, with paused weeks marked; the sentence above and the table below give the numbers." />
+      ) : null}
     </ChartFrame>
   );
 }

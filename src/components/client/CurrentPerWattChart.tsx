@@ -65,7 +65,9 @@ export function CurrentPerWattChart({ trends, locale, timeZone, compact = false 
   };
   return (
     <ChartFrame id="current-chart" title="Current per watt" compact={compact} summary={sentence(trends, locale, timeZone)} table={table}>
-      <Line data={data} options={options} role="img" aria-label="Line chart of stimulation current per watt for each session; the sentence above and the table below give the numbers." />
+      {sessions.some((s) => s.currentPerWattMaPerW !== null) ? (
+        <Line data={data} options={options} role="img" aria-label="Line chart of stimulation current per watt for each session; the sentence above and the table below give the numbers." />
+      ) : null}
     </ChartFrame>
   );
 }

@@ -100,7 +100,9 @@ export function PowerChart({ trends, locale, timeZone, compact = false }: { tren
   const summary = sentence(trends, locale, timeZone);
   return (
     <ChartFrame id="power-chart" title="Mean power per session" compact={compact} summary={summary} table={table}>
-      <Line data={data} options={options} role="img" aria-label="Line chart of mean power per session; the sentence above and the table below give the numbers." />
+      {sessions.some((s) => s.meanPowerW !== null) ? (
+        <Line data={data} options={options} role="img" aria-label="Line chart of mean power per session; the sentence above and the table below give the numbers." />
+      ) : null}
     </ChartFrame>
   );
 }

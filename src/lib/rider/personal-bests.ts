@@ -1,10 +1,11 @@
-// A rider's personal bests. On a tie the earlier ride keeps the best, since
-// that is when it was first reached. Zero values are not bests.
+// A rider's personal bests. On a tie the earlier session keeps the best, since
+// that is when it was first reached. Zero values are not bests, and neither is
+// anything from a session too short to count (a false start, a test spin).
 import { isoWeekKey } from '../time/iso-week';
 import { localDate, mondayOf } from '../time/local-date';
 import type { RiderSession } from './types';
 
-type BestInput = Pick<RiderSession, 'id' | 'startedAt' | 'activeS' | 'peakPower5sW' | 'distanceM'>;
+type BestInput = Pick<RiderSession, 'id' | 'startedAt' | 'activeS' | 'peakPower5sW' | 'distanceM' | 'counted'>;
 
 export interface PersonalBests {
   longestActive: { sessionId: string; startedAt: string | null; activeS: number } | null;
@@ -19,6 +20,7 @@ export function personalBests(sessions: BestInput[], timeZone: string): Personal
   const weeks = new Map<string, { isoWeek: string; monday: string; distanceM: number; sessions: number }>();
 
   for (const s of ordered) {
+    if (s.counted === false) continue;
     if (s.activeS > 0 && (longestActive === null || s.activeS > longestActive.activeS)) {
       longestActive = { sessionId: s.id, startedAt: s.startedAt, activeS: s.activeS };
     }

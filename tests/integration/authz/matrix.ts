@@ -150,6 +150,7 @@ export const MATRIX: Record<string, MatrixEntry> = {
   'GET /api/caseload': { request: () => ({ path: '/api/caseload' }), expect: staff(200) },
   'GET /api/clinic/settings': { request: () => ({ path: '/api/clinic/settings' }), expect: staff(200) },
   'PUT /api/clinic/settings': { request: () => ({ path: '/api/clinic/settings', body: {} }), expect: adminOnly(200) },
+  'PATCH /api/clinic/settings': { request: () => ({ path: '/api/clinic/settings', body: { locale: null } }), expect: adminOnly(200) },
   'PATCH /api/clients/[id]': { request: (w) => ({ path: `/api/clients/${w.clientId}`, body: { baselineSystolic: 112 } }), expect: manage(200) },
   'GET /api/clients/[id]/week': { request: (w) => ({ path: `/api/clients/${w.clientId}/week` }), expect: read(200) },
   'GET /api/clients/[id]/progress': { request: (w) => ({ path: `/api/clients/${w.clientId}/progress` }), expect: read(200) },
