@@ -9,7 +9,6 @@ import { filterRows, isFiltering, NO_FILTER, type RowFilter } from './filter';
 import { FlagActionDialog, type ActionTarget } from './FlagActionDialog';
 import { FlagFilters } from './FlagFilters';
 import { TriageFlags } from './TriageFlags';
-import { URGENCY_GROUPS } from '../../lib/flags/urgency';
 import type { ClientRow, FlagItem } from './types';
 
 const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
@@ -81,9 +80,6 @@ export default function Triage({ locale }: { locale: string }) {
                 </EmptyState>
               ) : (
                 <>
-                  <p className="max-w-prose" data-testid="triage-order">
-                    Listed by clinical urgency: first {URGENCY_GROUPS[0]}, then {URGENCY_GROUPS[1]}, then {URGENCY_GROUPS[2]}, then {URGENCY_GROUPS[3]}; within each, the longest waiting first.
-                  </p>
                   <FlagFilters rows={all} filter={filter} onChange={setFilter} byFlag />
                   {visible.length ? (
                     <ClientTable caption="Clients with open flags, most urgent first" rows={visible} renderFlags={renderFlags} sorting={sorting} onSortingChange={setSorting} locale={locale} />
