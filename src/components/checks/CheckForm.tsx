@@ -4,6 +4,7 @@ import { AD_SYMPTOM_LABELS, OTHER_EVENT_LABELS } from '../../lib/checks/labels';
 import { api, ApiError, useApi } from '../api';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
+import { FieldLink } from '../ui/FieldLink';
 import CautionBanner from '../ui/CautionBanner';
 import { EmptyState } from '../ui/EmptyState';
 import { SelectField, TextAreaField } from '../ui/Field';
@@ -321,23 +322,6 @@ function fieldTarget(key: string): string {
   if (key.startsWith('effort')) return 'check-effort';
   if (key === 'sessionId') return 'check-session';
   return 'check-form-h';
-}
-
-function FieldLink({ target, children }: { target: string; children: ReactNode }) {
-  return (
-    <a
-      href={`#${target}`}
-      className="font-medium"
-      onClick={(e) => {
-        e.preventDefault();
-        const el = document.getElementById(target);
-        const focusable = el && (el.matches('input, textarea, select') ? el : el.querySelector<HTMLElement>('input, textarea, select, button'));
-        focusable?.focus();
-      }}
-    >
-      {children}
-    </a>
-  );
 }
 
 /** One large checkbox that stands for "none of the list" or "all normal", and folds the details away when ticked. */

@@ -6,6 +6,7 @@ import { api, ApiError } from '../api';
 import { orderedChannels } from '../rides/channel-order';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
+import { FieldLink } from '../ui/FieldLink';
 import { SelectField, TextAreaField, TextField } from '../ui/Field';
 import { announceProgramChange } from './changes';
 import type { CHANNEL_FIELDS, LIMITED_FIELDS, PrescriptionLimits } from './prescription-limits';
@@ -289,23 +290,5 @@ function Choice({ name, checked, disabled, onChange, children }: { name: string;
       <input type="radio" name={name} checked={checked} disabled={disabled} onChange={onChange} className="h-5 w-5 accent-lagoon" />
       {children}
     </label>
-  );
-}
-
-/** A link in the error summary that moves focus to its field (or the first control of its group). */
-function FieldLink({ target, children }: { target: string; children: ReactNode }) {
-  return (
-    <a
-      href={`#${target}`}
-      className="font-medium"
-      onClick={(e) => {
-        e.preventDefault();
-        const el = document.getElementById(target);
-        const focusable = el && (el.matches('input, textarea, select') ? el : el.querySelector<HTMLElement>('input:not([disabled]), textarea, select'));
-        focusable?.focus();
-      }}
-    >
-      {children}
-    </a>
   );
 }
