@@ -12,18 +12,20 @@ export const FALLBACK_LOCALE = 'en-GB';
  * - `day`: "Mon 23 Nov 2026" — lists and tables
  * - `dayLong`: "Monday 23 November 2026" — a date said on its own
  * - `date`: "23 November 2026"
+ * - `dateShort`: "23 Nov 2026" — dense tables
  * - `dayMonth`: "23 Nov" — chart axes
  * - `dayMonthLong`: "23 November"
  * - `weekdayDayMonth`: "Monday 23 November" — the rider's pages, within the year
  * - `weekday`: "Monday"
  * (the order and punctuation follow the locale).
  */
-export type DateStyle = 'day' | 'dayLong' | 'date' | 'dayMonth' | 'dayMonthLong' | 'weekdayDayMonth' | 'weekday';
+export type DateStyle = 'day' | 'dayLong' | 'date' | 'dateShort' | 'dayMonth' | 'dayMonthLong' | 'weekdayDayMonth' | 'weekday';
 
 const STYLES: Record<DateStyle, Intl.DateTimeFormatOptions> = {
   day: { weekday: 'short', day: 'numeric', month: 'short', year: 'numeric' },
   dayLong: { weekday: 'long', day: 'numeric', month: 'long', year: 'numeric' },
   date: { day: 'numeric', month: 'long', year: 'numeric' },
+  dateShort: { day: 'numeric', month: 'short', year: 'numeric' },
   dayMonth: { day: 'numeric', month: 'short' },
   dayMonthLong: { day: 'numeric', month: 'long' },
   weekdayDayMonth: { weekday: 'long', day: 'numeric', month: 'long' },

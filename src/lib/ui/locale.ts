@@ -12,7 +12,11 @@ export interface PageLocale {
   timeZone: string;
 }
 
-export async function pageLocale(knex: Knex, viewer: Viewer, clientId?: string | null): Promise<PageLocale> {
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+export async function pageLocale(knex: Knex, viewer: Viewer, asked?: string | null): Promise<PageLocale> {
+  // An id from the address may be anything; one that is not a client's id takes the viewer's clinic.
+  const clientId = asked && UUID.test(asked) ? asked : null;
   const ownClient = clientId ?? viewer.clientId ?? viewer.carerOf[0] ?? null;
   const clinic =
     clientId || !viewer.memberships.length
