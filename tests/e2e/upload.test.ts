@@ -123,7 +123,7 @@ describe('uploading ride files', () => {
     await waitForResults(page, 4);
     const again = page.getByTestId('upload-item').nth(3);
     await expect(again.getAttribute('data-status')).resolves.toBe('duplicate');
-    await expect(again.textContent()).resolves.toContain('Already in Kinloop as the session of Friday, March 14, 2025 at 09:27 AM');
+    await expect(again.textContent()).resolves.toContain('Already in Kinloop as the session of Friday, 14 March 2025, 09:27');
     await context.close();
   });
 

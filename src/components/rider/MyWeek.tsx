@@ -60,7 +60,7 @@ function WeekView({ week, locale }: { week: WeekData; locale: string }) {
         <div className="grid gap-4">
           <section aria-labelledby="next-h" className={`card border-l-8 ${DUE_TONE[due.tone]}`} data-testid="next-due">
             <h2 id="next-h" className="text-base font-semibold tracking-wide text-ink-soft uppercase">
-              Next session
+              Coming up
             </h2>
             <p className="mt-2 text-2xl font-semibold">{due.headline}</p>
             {due.detail && <p className="mt-1 text-lg">{due.detail}</p>}

@@ -30,19 +30,19 @@ export function progressLine(sessions: LineInput[], programStart: string, now: D
   const firstMinutes = Math.round(mean(first.map((s) => s.activeS / 60)));
   const latestMinutes = Math.round(mean(latest.map((s) => s.activeS / 60)));
   if (latestMinutes > firstMinutes) {
-    return `Over the past month your rides averaged ${minutes(latestMinutes)}, up from ${firstMinutes} in your first month.`;
+    return `Over the past month your sessions averaged ${minutes(latestMinutes)}, up from ${firstMinutes} in your first month.`;
   }
 
   const firstPower = meanPower(first);
   const latestPower = meanPower(latest);
   if (firstPower !== null && latestPower !== null && latestPower > firstPower) {
-    return `Over the past month your rides averaged ${latestPower} watts of power, up from ${firstPower} in your first month.`;
+    return `Over the past month your sessions averaged ${latestPower} watts of power, up from ${firstPower} in your first month.`;
   }
 
   if (latestMinutes === firstMinutes) {
-    return `Over the past month your rides averaged ${minutes(latestMinutes)}, about the same as in your first month.`;
+    return `Over the past month your sessions averaged ${minutes(latestMinutes)}, about the same as in your first month.`;
   }
-  return `You have completed ${dated.length} ${dated.length === 1 ? 'ride' : 'rides'} since your program started.`;
+  return `You have completed ${dated.length} ${dated.length === 1 ? 'session' : 'sessions'} since your program started.`;
 }
 
 function mean(values: number[]): number {
