@@ -7,7 +7,7 @@ import { accessClient, staffClinic } from '../auth/access';
 import { auditAs, type RequestContext } from '../auth/context';
 import type { ClientRow, MonitoringEntryRow } from '../db/tables';
 import { badRequest } from '../http/errors';
-import { localDate } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { instant, paragraph } from '../validation/fields';
 import { toCsv } from '../exports/csv';
 import { dataPeriods, isMonth, monthOf, monthRange, MONITORING_ACTIVITIES, periodsWithin, totalsOf, type DataPeriod } from './periods';

@@ -1,6 +1,8 @@
 import { staffClinic } from '../auth/access';
 import { auditAs, type RequestContext } from '../auth/context';
 import { DEFAULT_FLAG_THRESHOLDS, flagThresholdsSchema, type FlagThresholds } from '../flags';
+import { z } from 'zod';
+import { defaultLocaleFor, isSupportedLocale } from '../time/locale';
 import { scheduleFlagEvaluation } from './flag-jobs';
 
 // Kinloop's plausibility limits for the thresholds that have no upper bound of
@@ -22,8 +24,35 @@ export const clinicSettingsInputSchema = flagThresholdsSchema.superRefine((t, ct
 
 export async function readClinicSettings(ctx: RequestContext, clinicId?: string) {
   const id = staffClinic(ctx.viewer, ['admin', 'therapist'], clinicId);
-  const clinic = await ctx.knex('clinics').where({ id }).first('id', 'name', 'time_zone', 'flag_thresholds');
-  return { clinicId: clinic.id, name: clinic.name, timeZone: clinic.time_zone, flagThresholds: flagThresholdsSchema.parse(clinic.flag_thresholds), defaults: DEFAULT_FLAG_THRESHOLDS };
+  const clinic = await ctx.knex('clinics').where({ id }).first('id', 'name', 'time_zone', 'locale', 'flag_thresholds');
+  return {
+    clinicId: clinic.id,
+    name: clinic.name,
+    timeZone: clinic.time_zone,
+    /** The clinic's own choice, or null for the default from its time zone. */
+    locale: clinic.locale as string | null,
+    defaultLocale: defaultLocaleFor(clinic.time_zone),
+    flagThresholds: flagThresholdsSchema.parse(clinic.flag_thresholds),
+    defaults: DEFAULT_FLAG_THRESHOLDS,
+  };
+}
+
+export const clinicLocaleSchema = z
+  .object({
+    locale: z
+      .string()
+      .max(35)
+      .refine(isSupportedLocale, { message: 'Date format: choose one of the listed languages and regions (a BCP 47 tag such as en-GB).' })
+      .nullable(),
+  })
+  .strict();
+
+/** The locale the clinic's dates and numbers are written in (admins); null goes back to the default from its time zone. */
+export async function saveClinicLocale(ctx: RequestContext, locale: string | null, clinicId?: string) {
+  const id = staffClinic(ctx.viewer, ['admin'], clinicId);
+  await ctx.knex('clinics').where({ id }).update({ locale });
+  await auditAs(ctx, { action: 'clinic.settings_change', clinicId: id, detail: { locale } });
+  return readClinicSettings(ctx, id);
 }
 
 /** Changes the clinic's flag thresholds (admins); every client is judged again with them. */
