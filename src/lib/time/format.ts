@@ -19,7 +19,7 @@ export const FALLBACK_LOCALE = 'en-GB';
  * - `weekday`: "Monday"
  * (the order and punctuation follow the locale).
  */
-export type DateStyle = 'day' | 'dayLong' | 'date' | 'dateShort' | 'dayMonth' | 'dayMonthLong' | 'weekdayDayMonth' | 'weekday';
+export type DateStyle = 'day' | 'dayLong' | 'date' | 'dateShort' | 'dayMonth' | 'dayMonthLong' | 'weekdayDayMonth' | 'weekday' | 'monthYear';
 
 const STYLES: Record<DateStyle, Intl.DateTimeFormatOptions> = {
   day: { weekday: 'short', day: 'numeric', month: 'short', year: 'numeric' },
@@ -30,6 +30,7 @@ const STYLES: Record<DateStyle, Intl.DateTimeFormatOptions> = {
   dayMonthLong: { day: 'numeric', month: 'long' },
   weekdayDayMonth: { weekday: 'long', day: 'numeric', month: 'long' },
   weekday: { weekday: 'long' },
+  monthYear: { month: 'long', year: 'numeric' },
 };
 
 // Hours as the locale writes them ("09:05" and "14:05" in en-GB, "2:05 PM" in en-US).
