@@ -4,8 +4,8 @@ import { scope, type Query } from '../data';
 import type { CheckRow, RideRow } from '../db/tables';
 import { fileSlug } from '../http/download';
 import { clinicEfficiencyPct } from '../reports/energy-settings';
-import { localDate } from '../time/iso-week';
-import { addDays, isLocalDate, startOfLocalDay } from '../time/local-date';
+import { addDays, isLocalDate, localDate } from '../time/local-date';
+import { startOfLocalDay } from '../time/zoned';
 import { fhirBundle } from './fhir';
 
 const localDay = (label: string) => z.string().refine(isLocalDate, `${label}: use the form YYYY-MM-DD.`);

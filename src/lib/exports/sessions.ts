@@ -3,7 +3,7 @@ import { scope, type Db } from '../data';
 import type { ClientRow, RideRow } from '../db/tables';
 import { fileSlug } from '../http/download';
 import { clinicEfficiencyPct } from '../reports/energy-settings';
-import { localDate } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { sessionsCsv } from './sessions-csv';
 
 const who = (c: ClientRow) => ({ id: c.id, name: c.display_name, timeZone: c.time_zone });

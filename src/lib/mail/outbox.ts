@@ -1,5 +1,6 @@
 import type { Db, Query } from '../data/db';
 import type { OutboxEmailRow } from '../db/tables';
+import { config } from '../config';
 import { mailTransport } from './transport';
 
 export interface EmailMessage {
@@ -35,9 +36,8 @@ export async function enqueueEmail(knex: Db, message: EmailMessage): Promise<str
 
 // 15 s, 30 s, 1 min … capped at one hour: a mail server that is down for a
 // while gets tried again soon after it is back, without a storm of attempts.
-const FIRST_RETRY_MS = Number(process.env.KINLOOP_OUTBOX_RETRY_MS ?? 15_000);
 export function retryDelayMs(attempts: number): number {
-  return Math.min(FIRST_RETRY_MS * 2 ** Math.max(0, attempts - 1), 3_600_000);
+  return Math.min(config().outboxRetryMs * 2 ** Math.max(0, attempts - 1), 3_600_000);
 }
 
 /**

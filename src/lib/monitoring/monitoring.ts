@@ -6,7 +6,7 @@ import type { RequestContext } from '../auth/context';
 import { scope, type Db } from '../data';
 import type { ClientRow, MonitoringEntryRow } from '../db/tables';
 import { badRequest } from '../http/errors';
-import { localDate } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { instant, paragraph } from '../validation/fields';
 import { toCsv } from '../exports/csv';
 import { dataPeriods, isMonth, monthOf, monthRange, MONITORING_ACTIVITIES, periodsWithin, totalsOf, type DataPeriod } from './periods';

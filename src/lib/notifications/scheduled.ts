@@ -14,10 +14,15 @@ import { reminderDue } from '../rider/reminder';
 import { readGoalFor } from '../riders/goal-progress';
 import { riderPauses } from '../riders/sessions';
 import { loadHistories } from '../supervision/history';
-import { isoWeekOf, localDate } from '../time/iso-week';
+import { isoWeekOf } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { notificationEmail, type Recipient } from './compose';
 import { riderAndCarers, riderOnly, therapistsOf } from './recipients';
 import { FLAG_KIND_WORDS } from '../flags/words';
+import { flagReason } from '../flags/reason';
+import { count, distance } from '../format/numbers';
+import { FALLBACK_LOCALE, formatDate, weekOf } from '../time/format';
+import { clinicLocale } from '../time/locale';
 
 export const DIGEST_HOUR = 7;
 export const REMINDER_HOUR = 18;
@@ -42,24 +47,26 @@ export async function sendScheduledEmails(
 
 async function digests(knex: Db, clients: ClientRow[], now: Date): Promise<number> {
   const flags = await knex<FlagRow>('flags').whereIn('state', ['open', 'acknowledged']).orderBy('raised_at');
-  const clinicZones = new Map((await knex('clinics').select('id', 'time_zone')).map((c) => [c.id, c.time_zone as string]));
-  const byRecipient = new Map<string, { to: Recipient; date: string; lines: { fresh: boolean; text: string }[] }>();
+  const clinics = new Map((await knex('clinics').select('id', 'time_zone', 'locale')).map((c) => [c.id as string, c as { time_zone: string; locale: string | null }]));
+  const byRecipient = new Map<string, { to: Recipient; date: string; locale: string; lines: { fresh: boolean; text: string }[] }>();
   for (const client of clients) {
     const own = flags.filter((f) => f.client_id === client.id);
     if (!own.length) continue;
-    const local = DateTime.fromJSDate(now).setZone(clinicZones.get(client.clinic_id) ?? 'UTC');
+    const clinic = clinics.get(client.clinic_id);
+    const local = DateTime.fromJSDate(now).setZone(clinic?.time_zone ?? 'UTC');
     if (local.hour < DIGEST_HOUR) continue;
+    const locale = clinic ? clinicLocale(clinic) : FALLBACK_LOCALE;
     for (const to of await therapistsOf(knex, client, 'daily_digest')) {
-      const entry = byRecipient.get(to.userId) ?? { to, date: local.toISODate()!, lines: [] };
+      const entry = byRecipient.get(to.userId) ?? { to, date: local.toISODate()!, locale, lines: [] };
       for (const f of own) {
         const fresh = now.getTime() - f.raised_at.getTime() < 86_400_000;
-        entry.lines.push({ fresh, text: `${client.display_name} — ${FLAG_KIND_WORDS[f.kind]} (${f.severity}${f.state === 'acknowledged' ? ', acknowledged' : ''}): ${f.reason}` });
+        entry.lines.push({ fresh, text: `${client.display_name} — ${FLAG_KIND_WORDS[f.kind]} (${f.severity}${f.state === 'acknowledged' ? ', acknowledged' : ''}): ${flagReason(f, locale)}` });
       }
       byRecipient.set(to.userId, entry);
     }
   }
   let n = 0;
-  for (const { to, date, lines } of byRecipient.values()) {
+  for (const { to, date, locale, lines } of byRecipient.values()) {
     const fresh = lines.filter((l) => l.fresh).map((l) => `New: ${l.text}`);
     const open = lines.filter((l) => !l.fresh).map((l) => `Still open: ${l.text}`);
     const id = await enqueueEmail(
@@ -67,7 +74,7 @@ async function digests(knex: Db, clients: ClientRow[], now: Date): Promise<numbe
       notificationEmail(to, 'daily_digest', {
         kind: 'daily_digest',
         subject: `Kinloop: ${fresh.length} new and ${open.length} open flag${fresh.length + open.length === 1 ? '' : 's'} today`,
-        paragraphs: [`Here are the flags for your clients on ${date}.`, ...fresh, ...open],
+        paragraphs: [`Here are the flags for your clients on ${formatDate(date, locale, 'dayLong')}.`, ...fresh, ...open],
         action: { label: 'Open triage', url: `${config().publicUrl}/triage` },
         dedupeKey: `digest:${to.userId}:${date}`,
         caution: true,
@@ -90,7 +97,7 @@ async function reminders(knex: Db, clients: ClientRow[], now: Date): Promise<num
     const last = h.sessions[h.sessions.length - 1];
     const next = nextSessionDue({ timeZone: client.time_zone, now, sessionsPerWeek: version.sessionsPerWeek, countedThisWeek: adherence.weeks[0].counted, lastSessionAt: last?.startedAt ?? null, pauses: riderPauses(h) });
     const sessionsToday = h.sessions.filter((s) => localDate(s.startedAt, client.time_zone) === today).length;
-    if (!reminderDue({ timeZone: client.time_zone, now, eveningHour: REMINDER_HOUR, nextDue: next.dueLocalDate, lastReminderSentAt: null, sessionsToday })) continue;
+    if (!reminderDue({ timeZone: client.time_zone, now, eveningHour: REMINDER_HOUR, nextDue: next.dueLocalDate, sessionsToday })) continue;
     for (const to of await riderAndCarers(knex, client, 'reminders')) {
       const self = to.userId === client.user_id;
       const id = await enqueueEmail(
@@ -122,15 +129,17 @@ async function weeklySummaries(knex: Db, clients: ClientRow[], now: Date): Promi
     const recipients = await riderOnly(knex, client, 'weekly_summary');
     if (!recipients.length) continue;
     const adherence = computeAdherence({ timeZone: client.time_zone, now: now.toISOString(), prescriptions: h.prescriptions, pauses: h.pauses, sessions: h.sessions, countThresholdPct: h.thresholds.countThresholdPct, weeks: 2 });
-    const week = adherence.weeks[0];
+    const thisWeek = adherence.weeks[0];
     const lastWeek = isoWeekOf(local.minus({ weeks: 1 }).toISODate()!, client.time_zone);
     const rides = h.sessions.filter((s) => {
       const d = localDate(s.startedAt, client.time_zone);
       return d >= lastWeek.monday && d <= lastWeek.sunday;
     });
-    const km = rides.reduce((sum, r) => sum + (r.row.distance_m ?? 0), 0) / 1000;
+    const metres = rides.reduce((sum, r) => sum + (r.row.distance_m ?? 0), 0);
     const minutes = Math.round(rides.reduce((sum, r) => sum + r.row.active_s, 0) / 60);
-    const goal = await goalLine(knex, client);
+    const locale = await localeOf(knex, client);
+    const week = weekOf(lastWeek.monday, locale);
+    const goal = await goalLine(knex, client, locale);
     for (const to of recipients) {
       const id = await enqueueEmail(
         knex,
@@ -138,9 +147,9 @@ async function weeklySummaries(knex: Db, clients: ClientRow[], now: Date): Promi
           kind: 'weekly_summary',
           subject: `Your riding last week: ${rides.length} session${rides.length === 1 ? '' : 's'}`,
           paragraphs: [
-            week.paused
-              ? `Last week (${lastWeek.isoWeek}) your program was paused.`
-              : `Last week (${lastWeek.isoWeek}) you rode ${rides.length} time${rides.length === 1 ? '' : 's'}${week.prescribed ? ` of the ${week.prescribed} planned` : ''}: ${minutes} active minutes and ${km.toFixed(1)} km.`,
+            thisWeek.paused
+              ? `Last week (${week}) your program was paused.`
+              : `Last week (${week}) you did ${count(rides.length, 'session')}${thisWeek.prescribed ? ` of the ${thisWeek.prescribed} planned` : ''}: ${minutes} active minutes and ${distance(metres, locale)}.`,
             `Your streak: ${adherence.streakWeeks} week${adherence.streakWeeks === 1 ? '' : 's'}.`,
             ...(goal ? [goal] : []),
           ],
@@ -154,10 +163,15 @@ async function weeklySummaries(knex: Db, clients: ClientRow[], now: Date): Promi
   return n;
 }
 
-async function goalLine(knex: Db, client: ClientRow): Promise<string | null> {
+async function goalLine(knex: Db, client: ClientRow, locale: string): Promise<string | null> {
   const g = await readGoalFor(knex, client);
   if (!g) return null;
   return g.progress.finished
     ? `You have reached the end of ${g.route.name}. Well done!`
-    : `Distance goal, ${g.route.name}: ${(g.progress.travelledM / 1000).toFixed(1)} of ${(g.progress.totalM / 1000).toFixed(0)} km${g.progress.next ? `; next: ${g.progress.next.name} in ${(g.progress.next.remainingM / 1000).toFixed(1)} km` : ''}.`;
+    : `Distance goal, ${g.route.name}: ${distance(g.progress.travelledM, locale)} of ${distance(g.progress.totalM, locale)}${g.progress.next ? `; next: ${g.progress.next.name} in ${distance(g.progress.next.remainingM, locale)}` : ''}.`;
+}
+
+async function localeOf(knex: Knex, client: ClientRow): Promise<string> {
+  const clinic = await knex('clinics').where({ id: client.clinic_id }).first('time_zone', 'locale');
+  return clinic ? clinicLocale(clinic) : FALLBACK_LOCALE;
 }

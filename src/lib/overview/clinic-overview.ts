@@ -5,10 +5,10 @@ import { scope } from '../data';
 import type { ClientRow, FlagRow } from '../db/tables';
 import { toCsv } from '../exports/csv';
 import { FLAG_KIND_WORDS } from '../flags/words';
-import { roundTo } from '../rides/metrics';
+import { roundTo } from '../analytics/round';
 import { loadHistories } from '../supervision/history';
 import { overviewOf } from '../supervision/overview';
-import { localDate } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { clinicOverviewFigures, OVERVIEW_WEEKS } from './figures';
 
 export async function clinicOverview(ctx: RequestContext, clinicId?: string, now = new Date()) {

@@ -3,7 +3,7 @@ import { scope } from '../data';
 import { personalBests } from '../rider/personal-bests';
 import { weeklyProgress } from '../rider/weekly-progress';
 import { loadHistory } from '../supervision/history';
-import { localDate } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { programStartOf, riderSessions } from './sessions';
 
 export async function riderProgress(ctx: RequestContext, clientId: string, now = new Date()) {

@@ -4,7 +4,8 @@ import { scope } from '../data';
 import { nextSessionDue } from '../rider/next-session';
 import { progressLine } from '../rider/progress-line';
 import { loadHistory } from '../supervision/history';
-import { isoWeekOf, localDate } from '../time/iso-week';
+import { isoWeekOf } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { programStartOf, riderPauses, riderSessions } from './sessions';
 
 /** The rider's week: sessions against the prescription, streak, next session due, the latest ride and a progress line. */

@@ -2,17 +2,15 @@ import type { RequestContext } from '../auth/context';
 import { scope } from '../data';
 import type { ClientRow, FlagRow } from '../db/tables';
 import { forbidden } from '../http/errors';
-import { FLAG_SEVERITIES } from '../flags';
+import { compareClientsByUrgency, compareUrgency } from '../flags/urgency';
 import { flagView } from './flags';
 import { overviews } from './overview';
-
-const severityRank = (s: FlagRow['severity']) => FLAG_SEVERITIES.indexOf(s);
 
 /**
  * The staff caseload: every client of the caller's clinics with their open
  * flags (open, not snoozed), last session, 4-week adherence, streak and power
- * trend. Triage is the same rows limited to clients with open flags, most
- * severe and oldest first.
+ * trend. Triage is the same rows limited to clients with open flags, in order
+ * of clinical urgency (src/lib/flags/urgency.ts).
  */
 export async function caseload(ctx: RequestContext, { onlyFlagged }: { onlyFlagged: boolean }) {
   const clinics = ctx.viewer.memberships.map((m) => m.clinicId);
@@ -36,11 +34,9 @@ export async function caseload(ctx: RequestContext, { onlyFlagged }: { onlyFlagg
   const rows = clients.map((c) => {
     const own = flags
       .filter((f) => f.client_id === c.id)
-      .sort((a, b) => severityRank(a.severity) - severityRank(b.severity) || a.raised_at.getTime() - b.raised_at.getTime())
-      .map(flagView);
-    return { clientId: c.id, clientName: c.display_name, flags: own, ...figures.get(c.id)! };
+      .map(flagView)
+      .sort(compareUrgency);
+    return { clientId: c.id, clientName: c.display_name, timeZone: c.time_zone, flags: own, ...figures.get(c.id)! };
   });
-  if (!onlyFlagged) return rows;
-  // Most severe first, then the longest waiting.
-  return rows.sort((a, b) => severityRank(a.flags[0].severity) - severityRank(b.flags[0].severity) || a.flags[0].raisedAt.localeCompare(b.flags[0].raisedAt));
+  return onlyFlagged ? rows.sort(compareClientsByUrgency) : rows;
 }

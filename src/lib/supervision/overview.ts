@@ -1,6 +1,7 @@
 // The per-client figures that triage and the caseload show: adherence, streak,
 // last session and power trend, computed from the same history the flags use.
 import { computeAdherence } from '../adherence';
+import { roundTo } from '../analytics/round';
 import { powerTrendPerWeek } from '../analytics/trend';
 import type { Db } from '../data/db';
 import type { ClientRow } from '../db/tables';
@@ -34,7 +35,7 @@ export function overviewOf(h: ClientHistory, now: Date, weeks = 12) {
   return { overview, adherence };
 }
 
-const roundTrend = (v: number | null) => (v === null ? null : Math.round(v * 100) / 100);
+const roundTrend = (v: number | null) => (v === null ? null : roundTo(v, 2));
 
 export async function overviews(db: Db, clients: ClientRow[], now: Date): Promise<Map<string, ClientOverview>> {
   const histories = await loadHistories(db, clients);

@@ -1,10 +1,10 @@
 import type { RequestContext } from '../auth/context';
 import { scope, type Db } from '../data';
 import type { PrescriptionRow } from '../db/tables';
-import { localDate } from '../time/iso-week';
-import { badRequest } from '../http/errors';
+import { badRequest, conflict } from '../http/errors';
+import { localDate } from '../time/local-date';
 import { scheduleFlagEvaluation } from './flag-jobs';
-import type { PrescriptionInput } from './prescription-rules';
+import { sameAsStored, type PrescriptionInput } from './prescription-rules';
 
 export function prescriptionView(row: PrescriptionRow & { created_by_name?: string }) {
   return {
@@ -58,6 +58,9 @@ export async function savePrescription(ctx: RequestContext, clientId: string, in
       throw badRequest(`Effective date: the new version cannot start before the current one (${latest.effective_from}).`, {
         fields: [{ path: 'effectiveFrom', message: `Choose ${latest.effective_from} or later.` }],
       });
+    }
+    if (latest && sameAsStored(input, latest)) {
+      throw conflict('unchanged', `Nothing differs from version ${latest.version}: change at least one value before saving a new version.`);
     }
     const [created] = await tx.db<PrescriptionRow>('prescriptions')
       .insert({
