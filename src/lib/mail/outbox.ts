@@ -1,4 +1,4 @@
-import type { Knex } from 'knex';
+import type { Db, Query } from '../data/db';
 import type { OutboxEmailRow } from '../db/tables';
 import { config } from '../config';
 import { mailTransport } from './transport';
@@ -16,7 +16,7 @@ export interface EmailMessage {
 }
 
 /** Queues an e-mail (pass the transaction of the change that causes it); null when its dedupe key was queued before. */
-export async function enqueueEmail(knex: Knex | Knex.Transaction, message: EmailMessage): Promise<string | null> {
+export async function enqueueEmail(knex: Db, message: EmailMessage): Promise<string | null> {
   const rows = await knex('outbox_emails')
     .insert({
       kind: message.kind,
@@ -44,7 +44,7 @@ export function retryDelayMs(attempts: number): number {
  * Sends what is due. Each row is claimed with SKIP LOCKED inside its own
  * transaction and marked sent in it, so two workers never send the same mail.
  */
-export async function deliverDueEmails(knex: Knex, limit = 20): Promise<{ sent: number; failed: number }> {
+export async function deliverDueEmails(knex: Db, limit = 20): Promise<{ sent: number; failed: number }> {
   let sent = 0;
   let failed = 0;
   for (let i = 0; i < limit; i++) {

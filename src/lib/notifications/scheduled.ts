@@ -3,7 +3,7 @@
 // 18:00 in the client's time zone, when none has arrived that day) and the
 // rider's weekly summary (Monday from 08:00). The job runs every hour; dedupe
 // keys make each go out once per day or week even when a run is missed or repeated.
-import type { Knex } from 'knex';
+import type { Db, Query } from '../data/db';
 import { DateTime } from 'luxon';
 import { computeAdherence, prescriptionTimeline } from '../adherence';
 import { config } from '../config';
@@ -33,7 +33,7 @@ export const WEEKLY_HOUR = 8;
  * says how many of each it queued (not counting those queued before).
  */
 export async function sendScheduledEmails(
-  knex: Knex,
+  knex: Db,
   now = new Date(),
   only: { clinicIds?: string[] } = {},
 ): Promise<{ digests: number; reminders: number; weekly: number }> {
@@ -45,7 +45,7 @@ export async function sendScheduledEmails(
   return { digests: await digests(knex, clients, now), reminders: await reminders(knex, clients, now), weekly: await weeklySummaries(knex, clients, now) };
 }
 
-async function digests(knex: Knex, clients: ClientRow[], now: Date): Promise<number> {
+async function digests(knex: Db, clients: ClientRow[], now: Date): Promise<number> {
   const flags = await knex<FlagRow>('flags').whereIn('state', ['open', 'acknowledged']).orderBy('raised_at');
   const clinics = new Map((await knex('clinics').select('id', 'time_zone', 'locale')).map((c) => [c.id as string, c as { time_zone: string; locale: string | null }]));
   const byRecipient = new Map<string, { to: Recipient; date: string; locale: string; lines: { fresh: boolean; text: string }[] }>();
@@ -85,7 +85,7 @@ async function digests(knex: Knex, clients: ClientRow[], now: Date): Promise<num
   return n;
 }
 
-async function reminders(knex: Knex, clients: ClientRow[], now: Date): Promise<number> {
+async function reminders(knex: Db, clients: ClientRow[], now: Date): Promise<number> {
   let n = 0;
   const localOf = (c: ClientRow) => DateTime.fromJSDate(now).setZone(c.time_zone);
   for (const h of await loadHistories(knex, clients.filter((c) => localOf(c).hour >= REMINDER_HOUR))) {
@@ -119,7 +119,7 @@ async function reminders(knex: Knex, clients: ClientRow[], now: Date): Promise<n
   return n;
 }
 
-async function weeklySummaries(knex: Knex, clients: ClientRow[], now: Date): Promise<number> {
+async function weeklySummaries(knex: Db, clients: ClientRow[], now: Date): Promise<number> {
   let n = 0;
   const localOf = (c: ClientRow) => DateTime.fromJSDate(now).setZone(c.time_zone);
   const due = clients.filter((c) => c.user_id && localOf(c).weekday === 1 && localOf(c).hour >= WEEKLY_HOUR);
@@ -163,7 +163,7 @@ async function weeklySummaries(knex: Knex, clients: ClientRow[], now: Date): Pro
   return n;
 }
 
-async function goalLine(knex: Knex, client: ClientRow, locale: string): Promise<string | null> {
+async function goalLine(knex: Db, client: ClientRow, locale: string): Promise<string | null> {
   const g = await readGoalFor(knex, client);
   if (!g) return null;
   return g.progress.finished

@@ -1,4 +1,5 @@
-import { auditListed, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
 import type { ClientRow, FlagRow } from '../db/tables';
 import { forbidden } from '../http/errors';
 import { compareClientsByUrgency, compareUrgency } from '../flags/urgency';
@@ -15,20 +16,21 @@ export async function caseload(ctx: RequestContext, { onlyFlagged }: { onlyFlagg
   const clinics = ctx.viewer.memberships.map((m) => m.clinicId);
   if (!clinics.length) throw forbidden('Triage and the caseload are for clinic staff.');
   const now = new Date();
-  const flags = await ctx.knex<FlagRow>('flags')
+  const s = scope(ctx);
+  const flags: FlagRow[] = await s.flags()
     .whereIn('clinic_id', clinics)
     .where({ state: 'open' })
-    .where((q) => q.whereNull('snoozed_until').orWhere('snoozed_until', '<', ctx.knex.raw('current_date')));
+    .where((q) => q.whereNull('snoozed_until').orWhereRaw('?? < current_date', ['snoozed_until']));
   const flagged = new Set(flags.map((f) => f.client_id));
-  const clients: ClientRow[] = await ctx.knex<ClientRow>('clients')
+  // The caller's clinics only: a therapist who is also someone's carer sees that client elsewhere.
+  const clients: ClientRow[] = await s.clients()
     .whereIn('clinic_id', clinics)
-    .whereNull('archived_at')
     .modify((q) => {
       if (onlyFlagged) q.whereIn('id', [...flagged]);
     })
     .orderBy('display_name');
-  const figures = await overviews(ctx.knex, clients, now);
-  await auditListed(ctx, onlyFlagged ? 'triage.view' : 'caseload.view', clients);
+  const figures = await overviews(s.db, clients, now);
+  await s.listed(onlyFlagged ? 'triage.view' : 'caseload.view', clients);
   const rows = clients.map((c) => {
     const own = flags
       .filter((f) => f.client_id === c.id)

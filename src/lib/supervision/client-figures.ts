@@ -2,16 +2,16 @@ import { z } from 'zod';
 import { prescriptionTimeline, sessionStatus } from '../adherence';
 import { localDate } from '../time/local-date';
 import { usualLevel } from '../flags/metric-shift';
-import { accessClient } from '../auth/access';
 import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
 import { loadHistory, type ClientHistory } from './history';
 import { overviewOf } from './overview';
 
 export const adherenceQuerySchema = z.object({ weeks: z.coerce.number().int().min(1).max(104).default(12) });
 
 export async function clientAdherence(ctx: RequestContext, clientId: string, weeks: number) {
-  const client = await accessClient(ctx, clientId, 'read', 'adherence.view');
-  const { adherence } = overviewOf(await loadHistory(ctx.knex, client), new Date(), weeks);
+  const client = await scope(ctx).client(clientId, 'read', 'adherence.view');
+  const { adherence } = overviewOf(await loadHistory(client.db, client.row), new Date(), weeks);
   return {
     weeks: adherence.weeks.map((w) => ({ isoWeek: w.isoWeek, prescribed: w.prescribed, counted: w.counted, short: w.short, met: w.met, paused: w.paused })),
     streakWeeks: adherence.streakWeeks,
@@ -27,8 +27,8 @@ export async function clientAdherence(ctx: RequestContext, clientId: string, wee
  * per watt.
  */
 export async function clientTrends(ctx: RequestContext, clientId: string) {
-  const client = await accessClient(ctx, clientId, 'read', 'trends.view');
-  const h = await loadHistory(ctx.knex, client);
+  const client = await scope(ctx).client(clientId, 'read', 'trends.view');
+  const h = await loadHistory(client.db, client.row);
   const { overview } = overviewOf(h, new Date());
   return { sessions: trendPointsOf(h), powerTrendWPerWeek: overview.powerTrendWPerWeek, thresholds: h.thresholds };
 }

@@ -42,7 +42,7 @@ export async function clientPage(astro: AstroGlobal, view: ClientView) {
   const manage = client ? canManageClient(ctx.viewer, { clinic_id: client.clinicId }) : false;
   const found = client !== null && (manage || !VIEWS.find((v) => v.view === view)!.staffOnly);
   if (!found) astro.response.status = 404;
-  const { locale } = await pageLocale(ctx.knex, ctx.viewer, client?.id);
+  const { locale } = await pageLocale(ctx, client?.id);
   const links: ClientViewLink[] = client ? VIEWS.filter((v) => manage || !v.staffOnly).map((v) => ({ view: v.view, label: v.label, href: `/clients/${client!.id}${v.path}` })) : [];
   return {
     ctx,

@@ -19,7 +19,7 @@ async function answer(request: Request, url: URL, params: Record<string, string 
   const ctx = signedIn(locals);
   const period = reportPeriodSchema.parse(Object.fromEntries(url.searchParams));
   // The client's clinic writes the dates and numbers, as on the report page.
-  const { locale } = await pageLocale(ctx.knex, ctx.viewer, params.id);
+  const { locale } = await pageLocale(ctx, params.id);
   const file = await reportPdfFile(ctx, params.id!, period, await summary(), locale);
   return download(new Uint8Array(file.bytes), file.filename, 'application/pdf');
 }
