@@ -171,7 +171,7 @@ async function goalLine(knex: Db, client: ClientRow, locale: string): Promise<st
     : `Distance goal, ${g.route.name}: ${distance(g.progress.travelledM, locale)} of ${distance(g.progress.totalM, locale)}${g.progress.next ? `; next: ${g.progress.next.name} in ${distance(g.progress.next.remainingM, locale)}` : ''}.`;
 }
 
-async function localeOf(knex: Knex, client: ClientRow): Promise<string> {
+async function localeOf(knex: Db, client: ClientRow): Promise<string> {
   const clinic = await knex('clinics').where({ id: client.clinic_id }).first('time_zone', 'locale');
   return clinic ? clinicLocale(clinic) : FALLBACK_LOCALE;
 }
