@@ -110,7 +110,7 @@ function CheckEntry({ client, self, onSaved }: { client: CheckClient; self: bool
     setErrors({});
     try {
       const saved = await api<SavedCheck>('POST', `/api/clients/${client.id}/checks`, body);
-      setOutcome({ clientName: client.name, self, evaluation: saved.evaluation });
+      setOutcome({ clientName: client.name, self, evaluation: saved.evaluation, adPlan: saved.adPlan ?? null });
       setDraft(emptyDraft());
       setFocusTarget('outcome');
       onSaved();

@@ -1,0 +1,58 @@
+// What triage, the caseload and the client page show about a client's care
+// outside the rides: readiness, whether a client at risk has a dysreflexia
+// plan on file, and whether a check found no baseline to compare with.
+// One read per table for a whole list of clients.
+import type { Knex } from 'knex';
+import { assessAdRisk } from '../checks/injury-level';
+import type { ClientRow } from '../db/tables';
+import { CLEARANCE_DUE_DAYS } from './care-settings';
+import { readinessOf, type Readiness, type ScreeningStatus } from './readiness';
+import { clientToday } from './today';
+
+export interface CareStatus {
+  readiness: Readiness;
+  /** The newest clearance's review date, when one is on file. */
+  clearanceReviewOn: string | null;
+  atRisk: boolean;
+  /** At risk of autonomic dysreflexia and no plan written. */
+  noPlanOnFile: boolean;
+  /** A check had blood pressure but no baseline to compare with, and none has been recorded since. */
+  baselineNeeded: boolean;
+}
+
+type Client = Pick<ClientRow, 'id' | 'clinic_id' | 'time_zone' | 'injury_level' | 'ad_risk' | 'baseline_systolic'>;
+
+export async function careStatuses(knex: Knex, clients: Client[], now = new Date()): Promise<Map<string, CareStatus>> {
+  const ids = clients.map((c) => c.id);
+  if (!ids.length) return new Map();
+  const [screenings, clearances, plans, missing] = await Promise.all([
+    knex('screening_versions').distinctOn('client_id').whereIn('client_id', ids).orderBy([{ column: 'client_id' }, { column: 'version', order: 'desc' }]).select('client_id', 'items', 'assessed_on'),
+    knex('clearances').distinctOn('client_id').whereIn('client_id', ids).orderBy([{ column: 'client_id' }, { column: 'created_at', order: 'desc' }]).select('client_id', 'cleared_on', 'review_on'),
+    knex('ad_plans').distinct('client_id').whereIn('client_id', ids).pluck('client_id'),
+    knex('checks').distinct('client_id').whereIn('client_id', ids).whereRaw("(evaluation->>'baselineMissing')::boolean").pluck('client_id'),
+  ]);
+  const screeningOf = new Map(screenings.map((s) => [s.client_id, { assessedOn: s.assessed_on as string, items: s.items as { status: ScreeningStatus }[] }]));
+  const clearanceOf = new Map(clearances.map((c) => [c.client_id, { clearedOn: c.cleared_on as string, reviewOn: c.review_on as string }]));
+  const planned = new Set(plans);
+  const unmeasured = new Set(missing);
+  return new Map(
+    clients.map((c) => {
+      const atRisk = assessAdRisk(c.injury_level, c.ad_risk).atRisk;
+      const clearance = clearanceOf.get(c.id) ?? null;
+      return [
+        c.id,
+        {
+          readiness: readinessOf({ screening: screeningOf.get(c.id) ?? null, clearance, today: clientToday(c.time_zone, now), dueWithinDays: CLEARANCE_DUE_DAYS }),
+          clearanceReviewOn: clearance?.reviewOn ?? null,
+          atRisk,
+          noPlanOnFile: atRisk && !planned.has(c.id),
+          baselineNeeded: c.baseline_systolic === null && unmeasured.has(c.id),
+        },
+      ];
+    }),
+  );
+}
+
+export async function careStatusOf(knex: Knex, client: Client, now = new Date()): Promise<CareStatus> {
+  return (await careStatuses(knex, [client], now)).get(client.id)!;
+}
