@@ -11,6 +11,9 @@ export interface ClinicRow {
   time_zone: string;
   /** Gross efficiency behind energy estimates; null: Kinloop's default. */
   fes_efficiency_pct: string | null;
+  /** Null: Kinloop's defaults (src/lib/care/care-settings.ts). */
+  clearance_review_months: number | null;
+  ad_absolute_systolic: number | null;
   created_at: Date;
 }
 
@@ -237,6 +240,9 @@ export interface PrescriptionRow {
   resistance: number | null;
   channels: Record<string, ChannelLimits>;
   notes: string | null;
+  /** A progression plan (src/lib/care/progression.ts) or null. */
+  progression: unknown;
+  not_cleared_reason: string | null;
   created_by: string;
   created_at: Date;
 }

@@ -5,7 +5,8 @@
 // resistance limits are Kinloop's own plausibility bounds.
 import { z } from 'zod';
 import { NAMED_CHANNELS, NUMBERED_CHANNELS } from '../rides/types';
-import { calendarDate, paragraph } from '../validation/fields';
+import { calendarDate, line, paragraph } from '../validation/fields';
+import { progressionPlanSchema } from '../care/progression';
 
 const SOURCE = 'the range reported for FES cycling programmes (J NeuroEng Rehabil 2021 review)';
 const within = (label: string, min: number, max: number, unit: string, source = SOURCE) =>
@@ -43,6 +44,10 @@ export const prescriptionInputSchema = z
     channels: z.record(z.enum([...NAMED_CHANNELS, ...NUMBERED_CHANNELS]), channelLimits).optional(),
     notes: paragraph(z.string().trim().max(2000, 'Notes: at most 2000 characters.'), 'Notes').optional(),
     effectiveFrom: calendarDate('Effective date'),
+    /** How the program grows when the rider is ready; null or absent: it does not. */
+    progression: progressionPlanSchema.nullish(),
+    /** Why the version is saved for a client who is not cleared (asked for when they are not). */
+    notClearedReason: line(z.string().trim().min(1, 'Reason: say why the program goes on without a current clearance.').max(500, 'Reason: at most 500 characters.'), 'Reason').optional(),
   })
   .strict()
   .refine((p) => p.warmupMinutes === undefined || p.warmupMinutes < p.minutesPerSession, {
