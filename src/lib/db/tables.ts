@@ -337,6 +337,7 @@ export interface NotificationPreferencesRow {
   weekly_summary: boolean;
   daily_digest: boolean;
   urgent_alerts: boolean;
+  messages: boolean;
   unsubscribe_token: string;
   updated_at: Date;
 }
