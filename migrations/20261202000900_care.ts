@@ -58,6 +58,11 @@ export async function up(knex: Knex): Promise<void> {
     t.unique(['client_id', 'version']);
   });
 
+  await knex.schema.alterTable('rides', (t) => {
+    // Null for rides under 12 active minutes, and for rides read before the metric existed.
+    t.double('endurance_ratio_pct');
+  });
+
   await knex.schema.alterTable('prescriptions', (t) => {
     // Null: no progression. See src/lib/care/progression.ts for its shape.
     t.jsonb('progression');
@@ -113,6 +118,7 @@ export async function down(knex: Knex): Promise<void> {
     t.dropColumn('progression');
     t.dropColumn('not_cleared_reason');
   });
+  await knex.schema.alterTable('rides', (t) => t.dropColumn('endurance_ratio_pct'));
   await knex.schema.alterTable('clinics', (t) => {
     t.dropColumn('clearance_review_months');
     t.dropColumn('ad_absolute_systolic');

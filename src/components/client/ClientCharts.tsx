@@ -4,6 +4,7 @@ import { Loaded } from '../ui/Loading';
 import { AdherenceChart } from './AdherenceChart';
 import { useOnProgramChange } from './changes';
 import { CurrentPerWattChart } from './CurrentPerWattChart';
+import { EnduranceChart } from './EnduranceChart';
 import { DurationChart } from './DurationChart';
 import { PowerChart } from './PowerChart';
 import type { AdherenceData, TrendsData } from './types';
@@ -23,6 +24,7 @@ export default function ClientCharts({ clientId, locale, timeZone, currentIsoWee
               <PowerChart trends={t} locale={locale} timeZone={timeZone} />
               <DurationChart trends={t} locale={locale} timeZone={timeZone} />
               <CurrentPerWattChart trends={t} locale={locale} timeZone={timeZone} />
+              <EnduranceChart trends={t} locale={locale} timeZone={timeZone} />
             </>
           ) : (
             <div className="lg:col-span-2">

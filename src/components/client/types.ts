@@ -52,6 +52,7 @@ export interface TrendPoint {
   targetS: number | null;
   counted: boolean;
   currentPerWattMaPerW: number | null;
+  enduranceRatioPct: number | null;
 }
 
 export interface TrendsData {

@@ -41,6 +41,13 @@ export function TriageFlags({ row, now, onAction }: { row: ClientRow; now: Date;
                   </span>
                 </Button>
               ))}
+              <a href={`/messages?clientId=${row.clientId}&flag=${flag.id}`} className="btn btn-secondary px-4">
+                Contact the rider
+                <span className="sr-only">
+                  {' '}
+                  about the {kind} flag of {row.clientName}
+                </span>
+              </a>
             </div>
           </li>
         );

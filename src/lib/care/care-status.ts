@@ -56,3 +56,18 @@ export async function careStatuses(knex: Knex, clients: Client[], now = new Date
 export async function careStatusOf(knex: Knex, client: Client, now = new Date()): Promise<CareStatus> {
   return (await careStatuses(knex, [client], now)).get(client.id)!;
 }
+
+/**
+ * Digest lines for clearances whose review falls due within 30 days or has
+ * passed, by client: what the therapist's daily digest adds to the flags.
+ */
+export async function clearanceReviewLines(knex: Knex, clients: (Client & Pick<ClientRow, 'display_name'>)[], now = new Date()): Promise<Map<string, string>> {
+  const statuses = await careStatuses(knex, clients, now);
+  const out = new Map<string, string>();
+  for (const c of clients) {
+    const s = statuses.get(c.id)!;
+    if (s.readiness === 'clearance_due') out.set(c.id, `${c.display_name} — medical clearance due for review on ${s.clearanceReviewOn}.`);
+    if (s.readiness === 'clearance_expired') out.set(c.id, `${c.display_name} — medical clearance expired on ${s.clearanceReviewOn}; a new one is needed.`);
+  }
+  return out;
+}

@@ -191,6 +191,7 @@ export interface RideRow {
   work_kj: number | null;
   mean_cadence_rpm: number | null;
   current_per_watt_ma_per_w: number | null;
+  endurance_ratio_pct: number | null;
   pulse_width_us: number | null;
   frequency_hz: number | null;
   samples: number;

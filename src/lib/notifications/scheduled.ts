@@ -18,6 +18,7 @@ import { isoWeekOf, localDate } from '../time/iso-week';
 import { notificationEmail, type Recipient } from './compose';
 import { riderAndCarers, riderOnly, therapistsOf } from './recipients';
 import { FLAG_KIND_WORDS } from '../flags/words';
+import { clearanceReviewLines } from '../care/care-status';
 
 export const DIGEST_HOUR = 7;
 export const REMINDER_HOUR = 18;
@@ -43,14 +44,18 @@ export async function sendScheduledEmails(
 async function digests(knex: Knex, clients: ClientRow[], now: Date): Promise<number> {
   const flags = await knex<FlagRow>('flags').whereIn('state', ['open', 'acknowledged']).orderBy('raised_at');
   const clinicZones = new Map((await knex('clinics').select('id', 'time_zone')).map((c) => [c.id, c.time_zone as string]));
-  const byRecipient = new Map<string, { to: Recipient; date: string; lines: { fresh: boolean; text: string }[] }>();
+  const byRecipient = new Map<string, { to: Recipient; date: string; lines: { fresh: boolean; text: string }[]; reviews: string[] }>();
+  // Clearances falling due for review go into the same digest (issue 12).
+  const reviews = await clearanceReviewLines(knex, clients, now);
   for (const client of clients) {
     const own = flags.filter((f) => f.client_id === client.id);
-    if (!own.length) continue;
+    const review = reviews.get(client.id);
+    if (!own.length && !review) continue;
     const local = DateTime.fromJSDate(now).setZone(clinicZones.get(client.clinic_id) ?? 'UTC');
     if (local.hour < DIGEST_HOUR) continue;
     for (const to of await therapistsOf(knex, client, 'daily_digest')) {
-      const entry = byRecipient.get(to.userId) ?? { to, date: local.toISODate()!, lines: [] };
+      const entry = byRecipient.get(to.userId) ?? { to, date: local.toISODate()!, lines: [], reviews: [] };
+      if (review) entry.reviews.push(review);
       for (const f of own) {
         const fresh = now.getTime() - f.raised_at.getTime() < 86_400_000;
         entry.lines.push({ fresh, text: `${client.display_name} — ${FLAG_KIND_WORDS[f.kind]} (${f.severity}${f.state === 'acknowledged' ? ', acknowledged' : ''}): ${f.reason}` });
@@ -59,15 +64,16 @@ async function digests(knex: Knex, clients: ClientRow[], now: Date): Promise<num
     }
   }
   let n = 0;
-  for (const { to, date, lines } of byRecipient.values()) {
+  for (const { to, date, lines, reviews: due } of byRecipient.values()) {
     const fresh = lines.filter((l) => l.fresh).map((l) => `New: ${l.text}`);
     const open = lines.filter((l) => !l.fresh).map((l) => `Still open: ${l.text}`);
+    const reviewText = due.length ? `, ${due.length} clearance review${due.length === 1 ? '' : 's'}` : '';
     const id = await enqueueEmail(
       knex,
       notificationEmail(to, 'daily_digest', {
         kind: 'daily_digest',
-        subject: `Kinloop: ${fresh.length} new and ${open.length} open flag${fresh.length + open.length === 1 ? '' : 's'} today`,
-        paragraphs: [`Here are the flags for your clients on ${date}.`, ...fresh, ...open],
+        subject: `Kinloop: ${fresh.length} new and ${open.length} open flag${fresh.length + open.length === 1 ? '' : 's'}${reviewText} today`,
+        paragraphs: [`Here are the flags for your clients on ${date}.`, ...fresh, ...open, ...due.map((r) => `Clearance: ${r}`)],
         action: { label: 'Open triage', url: `${config().publicUrl}/triage` },
         dedupeKey: `digest:${to.userId}:${date}`,
         caution: true,

@@ -4,6 +4,7 @@ import { forbidden } from '../http/errors';
 import { FLAG_SEVERITIES } from '../flags';
 import { flagView } from './flags';
 import { overviews } from './overview';
+import { careStatuses } from '../care/care-status';
 
 const severityRank = (s: FlagRow['severity']) => FLAG_SEVERITIES.indexOf(s);
 
@@ -30,13 +31,15 @@ export async function caseload(ctx: RequestContext, { onlyFlagged }: { onlyFlagg
     })
     .orderBy('display_name');
   const figures = await overviews(ctx.knex, clients, now);
+  // Readiness, "no plan on file" and a missing baseline (issue 12): one small read per table.
+  const care = await careStatuses(ctx.knex, clients, now);
   await auditListed(ctx, onlyFlagged ? 'triage.view' : 'caseload.view', clients);
   const rows = clients.map((c) => {
     const own = flags
       .filter((f) => f.client_id === c.id)
       .sort((a, b) => severityRank(a.severity) - severityRank(b.severity) || a.raised_at.getTime() - b.raised_at.getTime())
       .map(flagView);
-    return { clientId: c.id, clientName: c.display_name, flags: own, ...figures.get(c.id)! };
+    return { clientId: c.id, clientName: c.display_name, flags: own, ...figures.get(c.id)!, care: care.get(c.id)! };
   });
   if (!onlyFlagged) return rows;
   // Most severe first, then the longest waiting.
