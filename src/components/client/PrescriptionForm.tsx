@@ -67,6 +67,12 @@ export function PrescriptionForm({
   const [effectiveFrom, setEffectiveFrom] = useState(earliest);
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<ApiError | null>(null);
+  const [progressionKind, setProgressionKind] = useState<string>(latest?.progression?.kind ?? 'none');
+  const [progressionStep, setProgressionStep] = useState(text(latest?.progression?.step ?? 5));
+  const [progressionUpTo, setProgressionUpTo] = useState(text(latest?.progression?.upTo ?? 60));
+  // Set when the server answers that the client is not cleared: the save is asked for again with a reason.
+  const [notCleared, setNotCleared] = useState<string | null>(null);
+  const [reason, setReason] = useState('');
   const heading = useRef<HTMLHeadingElement>(null);
   useEffect(() => heading.current?.focus(), []);
 
@@ -95,18 +101,25 @@ export function PrescriptionForm({
       ),
       ...(notes.trim() ? { notes } : {}),
       effectiveFrom,
+      progression: progressionKind === 'none' ? null : { kind: progressionKind, step: numberOf(progressionStep, true), upTo: numberOf(progressionUpTo, true) },
+      ...(notCleared ? { notClearedReason: reason } : {}),
     };
     try {
       const created = await api<PrescriptionVersionView>('PUT', `/api/clients/${clientId}/prescription`, body);
       announceProgramChange();
       onSaved(created);
     } catch (err) {
-      setError(err as ApiError);
+      const e = err as ApiError;
+      if (e.body.code === 'not_cleared' && !notCleared) {
+        setNotCleared(e.message);
+      } else {
+        setError(e);
+      }
       setBusy(false);
     }
   }
 
-  const scalarPaths = ['sessionsPerWeek', 'minutesPerSession', 'warmupMinutes', 'targetCadenceRpm', 'cadenceToleranceRpm', 'resistance', 'notes', 'effectiveFrom'];
+  const scalarPaths = ['sessionsPerWeek', 'minutesPerSession', 'warmupMinutes', 'targetCadenceRpm', 'cadenceToleranceRpm', 'resistance', 'notes', 'effectiveFrom', 'progression.step', 'progression.upTo', 'progression.kind', 'notClearedReason'];
   const known = (path: string) => scalarPaths.includes(path) || channels.some((r) => path.startsWith(`channels.${r.channel}.`));
   const number = { inputMode: 'decimal' as const, autoComplete: 'off', className: 'field-input max-w-40' };
 
@@ -170,13 +183,44 @@ export function PrescriptionForm({
         )}
       </fieldset>
 
+      <fieldset className="space-y-3">
+        <legend className="mb-1 font-semibold">Progression</legend>
+        <p className="text-sm text-ink-soft">
+          When every prescribed session of a finished week counted, no urgent flag is open and current per watt has not risen beyond the clinic’s threshold, Kinloop proposes the next step for you to accept. Riders typically build from about 20 to 60 minutes over the first month.
+        </p>
+        <div className="grid gap-4 sm:grid-cols-3">
+          <SelectField
+            label="Step up"
+            value={progressionKind}
+            onChange={(e) => setProgressionKind(e.target.value)}
+            options={[
+              { value: 'none', label: 'No progression' },
+              { value: 'minutes', label: 'Minutes per session' },
+              { value: 'resistance', label: 'Resistance' },
+            ]}
+          />
+          {progressionKind !== 'none' && (
+            <>
+              <TextField label={progressionKind === 'minutes' ? 'Step (minutes)' : 'Step (levels)'} {...number} value={progressionStep} onChange={(e) => setProgressionStep(e.target.value)} error={error?.field('progression.step')} />
+              <TextField label="Up to" {...number} value={progressionUpTo} onChange={(e) => setProgressionUpTo(e.target.value)} error={error?.field('progression.upTo')} />
+            </>
+          )}
+        </div>
+      </fieldset>
+
       <TextAreaField label="Notes" optional value={notes} maxLength={2000} onChange={(e) => setNotes(e.target.value)} help="Shown with the prescription to the client and carers, for example electrode placement or when to stop." error={error?.field('notes')} />
       <div className="max-w-xs">
         <TextField label="Effective from" type="date" min={earliest} value={effectiveFrom} onChange={(e) => setEffectiveFrom(e.target.value)} help={`The first day it applies, in the client’s time zone (${timeZone}).`} error={error?.field('effectiveFrom')} />
       </div>
+      {notCleared && (
+        <div className="space-y-3 rounded-lg border-2 border-ochre bg-ochre-tint p-4" role="alert" data-testid="not-cleared">
+          <p className="font-semibold">{notCleared}</p>
+          <TextField label="Reason for saving without a current clearance" value={reason} onChange={(e) => setReason(e.target.value)} error={error?.field('notClearedReason')} />
+        </div>
+      )}
       <div className="flex flex-wrap gap-3">
         <Button type="submit" busy={busy}>
-          Save as version {(latest?.version ?? 0) + 1}
+          {notCleared ? `Confirm and save version ${(latest?.version ?? 0) + 1}` : `Save as version ${(latest?.version ?? 0) + 1}`}
         </Button>
         <Button variant="quiet" onClick={onCancel}>
           Cancel

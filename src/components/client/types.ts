@@ -15,6 +15,8 @@ export interface PrescriptionVersionView {
   resistance: number | null;
   channels: Record<string, ChannelLimits>;
   notes: string | null;
+  progression?: { kind: 'minutes' | 'resistance'; step: number; upTo: number } | null;
+  notClearedReason?: string | null;
   createdBy: { userId: string; name: string | null };
   createdAt: string;
 }

@@ -13,11 +13,7 @@ import type { ScreeningStatus } from './readiness';
 export const SCREENING_ITEM_IDS = PRE_PROGRAM_SCREENING.items.map((i) => i.id) as [string, ...string[]];
 export const SCREENING_STATUSES = ['not_assessed', 'no_concern', 'concern'] as const;
 
-export const SCREENING_STATUS_LABELS: Record<ScreeningStatus, string> = {
-  not_assessed: 'Not assessed',
-  no_concern: 'No concern',
-  concern: 'Concern',
-};
+export { SCREENING_STATUS_LABELS } from './screening-labels';
 
 const itemSchema = z
   .object({
