@@ -25,6 +25,11 @@ import { MATRIX } from './authz/matrix';
 import { reportPdfBodySchema } from '../../src/lib/reports/report-data';
 import { energySettingsSchema } from '../../src/lib/reports/energy-settings';
 import { monitoringInputSchema } from '../../src/lib/monitoring/monitoring';
+import { screeningInputSchema } from '../../src/lib/care/screening';
+import { adPlanInputSchema } from '../../src/lib/care/ad-plan';
+import { careSettingsSchema } from '../../src/lib/care/care-settings';
+import { decisionSchema } from '../../src/lib/care/progression-service';
+import { messageInputSchema } from '../../src/lib/care/messages';
 
 let world: World;
 beforeAll(async () => {
@@ -126,6 +131,11 @@ const SCHEMAS: Record<string, ZodTypeAny> = {
   'POST /api/clients/[id]/report.pdf': reportPdfBodySchema,
   'POST /api/clients/[id]/monitoring': monitoringInputSchema,
   'PUT /api/clinic/energy': energySettingsSchema,
+  'PUT /api/clients/[id]/screening': screeningInputSchema,
+  'PUT /api/clients/[id]/ad-plan': adPlanInputSchema,
+  'PUT /api/clinic/care': careSettingsSchema,
+  'POST /api/progressions/[id]': decisionSchema,
+  'POST /api/clients/[id]/messages': messageInputSchema,
 };
 
 /** The field paths of a zod schema: nested objects give dotted paths, records a `*` key, arrays of objects their first element. */
@@ -205,7 +215,7 @@ describe('fuzz: awkward values in every field, query parameter and path paramete
       .filter(([, e]) => !e.freshSession)
       .map(([key]) => key);
     // Routes whose body the fuzz leaves to its own tests: multipart uploads (ingest tests), and those without a body.
-    const without = ['POST /api/uploads', 'POST /api/uploads/[id]/reprocess', 'POST /api/invitations/[id]/revoke', 'POST /api/clients/[id]/pauses/[pauseId]/end', 'DELETE /api/import-profiles/[id]', 'POST /api/auth/sign-in'];
+    const without = ['POST /api/uploads', 'POST /api/clients/[id]/clearances', 'POST /api/uploads/[id]/reprocess', 'POST /api/invitations/[id]/revoke', 'POST /api/clients/[id]/pauses/[pauseId]/end', 'DELETE /api/import-profiles/[id]', 'POST /api/auth/sign-in'];
     expect(withBody.filter((k) => !(k in SCHEMAS) && !without.includes(k))).toEqual([]);
   });
 
