@@ -81,8 +81,8 @@ describe('screening, clearance and readiness', () => {
     expect(download.status).toBe(200);
     const back = new Uint8Array(await download.arrayBuffer());
     expect(createHash('sha256').update(back).digest('hex')).toBe(createHash('sha256').update(bytes).digest('hex'));
-    // The carer may not download it.
-    expect((await (await world.as('carer')).request('GET', up.body.downloadUrl)).status).toBe(403);
+    // A carer (of another client) does not learn that it exists; the world's own carer is refused with 403 in the authorization matrix.
+    expect((await (await world.as('carer')).request('GET', up.body.downloadUrl)).status).toBe(404);
   });
 
   it('the review date defaults to a year after the clearance, or the clinic setting', async () => {
@@ -156,7 +156,9 @@ describe('screening, clearance and readiness', () => {
     const at = DateTime.now().setZone('Europe/London').set({ hour: 9, minute: 0 }).toJSDate();
     await sendScheduledEmails(world.knex, at, { clinicIds: [world.clinicId] });
     const mail = await world.knex('outbox_emails').where({ dedupe_key: `digest:${world.users.therapist.id}:${DateTime.fromJSDate(at).setZone('Europe/London').toISODate()}` }).first();
-    expect(mail.text_body).toContain(`medical clearance due for review on ${reviewOn}`);
+    // The date as the clinic's locale (en-GB, from its London time zone) writes it, worded by luxon rather than Kinloop's formatter.
+    const written = DateTime.fromISO(reviewOn).setLocale('en-GB').toFormat('d MMMM yyyy');
+    expect(mail.text_body).toContain(`medical clearance due for review on ${written}`);
   });
 });
 

@@ -25,6 +25,7 @@ import { MATRIX } from './authz/matrix';
 import { reportPdfBodySchema } from '../../src/lib/reports/report-data';
 import { energySettingsSchema } from '../../src/lib/reports/energy-settings';
 import { monitoringInputSchema } from '../../src/lib/monitoring/monitoring';
+import { clinicLocaleSchema } from '../../src/lib/supervision/settings';
 import { screeningInputSchema } from '../../src/lib/care/screening';
 import { adPlanInputSchema } from '../../src/lib/care/ad-plan';
 import { careSettingsSchema } from '../../src/lib/care/care-settings';
@@ -121,6 +122,7 @@ const SCHEMAS: Record<string, ZodTypeAny> = {
   'POST /api/clients/[id]/notes': noteInputSchema,
   'POST /api/flags/[id]': flagActionSchema,
   'PUT /api/clinic/settings': flagThresholdsSchema,
+  'PATCH /api/clinic/settings': clinicLocaleSchema,
   'PUT /api/clients/[id]/goal': goalInputSchema,
   'POST /api/clients/[id]/checks': checkInputSchema,
   'PUT /api/me/notifications': preferencesInputSchema,

@@ -20,16 +20,18 @@ interface Contact {
 /** The clinic writes the rider's own dysreflexia plan; every save is a new version, the current one is shown as riders and carers see it. */
 export default function AdPlanEditor({ clientId, atRisk }: { clientId: string; atRisk: boolean }) {
   const [data, reload] = useApi<PlanData>(`/api/clients/${clientId}/ad-plan`);
+  // Kept here: a save reloads the data and the editor starts again from the new version, with the message still shown.
+  const [saved, setSaved] = useState(false);
   return (
     <Loaded value={data} reload={reload} label="the dysreflexia plan">
-      {(d) => <Editor key={d.current?.id ?? 'none'} data={d} clientId={clientId} atRisk={atRisk} onSaved={reload} />}
+      {(d) => <Editor key={d.current?.id ?? 'none'} data={d} clientId={clientId} atRisk={atRisk} saved={saved} onSaving={() => setSaved(false)} onSaved={() => { setSaved(true); reload(); }} />}
     </Loaded>
   );
 }
 
 const numberOrNull = (v: string) => (v.trim() === '' ? null : Number(v));
 
-function Editor({ data, clientId, atRisk, onSaved }: { data: PlanData; clientId: string; atRisk: boolean; onSaved: () => void }) {
+function Editor({ data, clientId, atRisk, saved, onSaving, onSaved }: { data: PlanData; clientId: string; atRisk: boolean; saved: boolean; onSaving: () => void; onSaved: () => void }) {
   const c = data.current;
   const [systolic, setSystolic] = useState(c?.restingSystolic?.toString() ?? '');
   const [diastolic, setDiastolic] = useState(c?.restingDiastolic?.toString() ?? '');
@@ -40,14 +42,13 @@ function Editor({ data, clientId, atRisk, onSaved }: { data: PlanData; clientId:
   const [contacts, setContacts] = useState<Contact[]>(c?.contacts.map((x) => ({ name: x.name, relationship: x.relationship ?? '', phone: x.phone })) ?? []);
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<ApiError | null>(null);
-  const [saved, setSaved] = useState(false);
   const f = (path: string) => error?.field(path);
 
   async function submit(e: FormEvent) {
     e.preventDefault();
     setBusy(true);
     setError(null);
-    setSaved(false);
+    onSaving();
     try {
       await api('PUT', `/api/clients/${clientId}/ad-plan`, {
         restingSystolic: numberOrNull(systolic),
@@ -58,7 +59,6 @@ function Editor({ data, clientId, atRisk, onSaved }: { data: PlanData; clientId:
         whoToCall,
         contacts: contacts.map((x) => ({ name: x.name, relationship: x.relationship.trim() || null, phone: x.phone })),
       });
-      setSaved(true);
       onSaved();
     } catch (err) {
       setError(err as ApiError);

@@ -1,6 +1,6 @@
 import { useRef, useState, type FormEvent } from 'react';
 import { ApiError, useApi, type ApiErrorBody } from '../api';
-import { dayLabel } from '../client/dates';
+import { formatDate } from '../../lib/time/format';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { TextField } from '../ui/Field';
@@ -52,7 +52,7 @@ export default function Clearances({ clientId, locale, today, reviewMonths }: { 
       const res = await fetch(`/api/clients/${clientId}/clearances`, { method: 'POST', body: form, credentials: 'same-origin' });
       const body = await res.json().catch(() => null);
       if (!res.ok) throw new ApiError(res.status, (body?.error as ApiErrorBody) ?? { code: `http_${res.status}`, message: `The server answered ${res.status}. Try again in a moment.` });
-      setSaved(`Clearance saved: ${(body as Clearance).name}, review on ${dayLabel((body as Clearance).reviewOn, locale)}.`);
+      setSaved(`Clearance saved: ${(body as Clearance).name}, review on ${formatDate((body as Clearance).reviewOn, locale, 'day')}.`);
       setClinician('');
       setReviewOn('');
       if (file.current) file.current.value = '';
@@ -100,9 +100,9 @@ export default function Clearances({ clientId, locale, today, reviewMonths }: { 
               {clearances.map((c) => (
                 <li key={c.id} className="card space-y-1" data-testid="clearance">
                   <p className="font-semibold">
-                    Cleared on {dayLabel(c.clearedOn, locale)} by {c.clinician}
+                    Cleared on {formatDate(c.clearedOn, locale, 'day')} by {c.clinician}
                   </p>
-                  <p>Review on {dayLabel(c.reviewOn, locale)}</p>
+                  <p>Review on {formatDate(c.reviewOn, locale, 'day')}</p>
                   <p className="text-sm text-ink-soft">
                     Uploaded by {c.uploadedBy.name ?? 'the clinic'} · {KIND[c.contentType] ?? c.contentType}, {size(c.byteSize)}
                   </p>

@@ -1,6 +1,6 @@
 import { useRef, useState, type FormEvent } from 'react';
 import { api, ApiError, useApi } from '../api';
-import { instantLabel } from '../client/dates';
+import { formatDateTime } from '../../lib/time/format';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { TextAreaField } from '../ui/Field';
@@ -26,7 +26,7 @@ const ROLE: Record<Message['author']['role'], string> = { staff: 'clinic', clien
 
 /**
  * The thread between the clinic, the rider and their carers, newest first.
- * `flag` (from triage's "Contact the rider") quotes that flag in the message.
+ * `flag` (from triage's "Contact …" on a flag) quotes that flag in the message.
  */
 export default function MessageThread({ clientId, locale, timeZone, flagId, flagQuote }: { clientId: string; locale: string; timeZone: string; flagId?: string | null; flagQuote?: string | null }) {
   const [thread, reload] = useApi<Thread>(`/api/clients/${clientId}/messages`);
@@ -87,7 +87,7 @@ export default function MessageThread({ clientId, locale, timeZone, flagId, flag
               {messages.map((m) => (
                 <li key={m.id} className={`card space-y-1 ${m.author.you ? 'border-l-4 border-l-lagoon' : ''}`}>
                   <p className="text-sm text-ink-soft">
-                    {m.author.you ? 'You' : `${m.author.name} (${ROLE[m.author.role]})`} · <time dateTime={m.sentAt}>{instantLabel(m.sentAt, locale, timeZone)}</time>
+                    {m.author.you ? 'You' : `${m.author.name} (${ROLE[m.author.role]})`} · <time dateTime={m.sentAt}>{formatDateTime(m.sentAt, locale, timeZone, 'dateShort')}</time>
                     {m.unread && <span className="ml-2 rounded-full border border-lagoon px-2 font-semibold text-lagoon-dark">New</span>}
                   </p>
                   {m.flagQuote && <blockquote className="border-l-4 border-slate pl-3 text-sm italic">About: {m.flagQuote}</blockquote>}

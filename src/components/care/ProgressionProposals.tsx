@@ -1,7 +1,7 @@
 import { useRef, useState } from 'react';
 import { NOT_CLEARED_CAUTION } from '../../lib/checks/safety-text';
 import { api, ApiError, useApi } from '../api';
-import { dayLabel } from '../client/dates';
+import { formatDate } from '../../lib/time/format';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { TextField } from '../ui/Field';
@@ -108,7 +108,7 @@ function ProposalCard({ p, locale, startsOn, onDone }: { p: Proposal; locale: st
     try {
       const edited = editing ? (p.evidence.kind === 'minutes' ? { minutesPerSession: Number(value) } : { resistance: Number(value) }) : {};
       await api('POST', `/api/progressions/${p.id}`, { action, ...(action === 'accept' ? edited : {}), ...(needsReason && reason ? { notClearedReason: reason } : {}) });
-      onDone(action === 'accept' ? `Accepted for ${label}: the new version starts ${startsOn ? dayLabel(startsOn, locale) : 'next Monday'}.` : `Dismissed the proposal for ${label}.`);
+      onDone(action === 'accept' ? `Accepted for ${label}: the new version starts ${startsOn ? formatDate(startsOn, locale, 'day') : 'next Monday'}.` : `Dismissed the proposal for ${label}.`);
     } catch (err) {
       const e = err as ApiError;
       if (e.body.code === 'not_cleared') setNeedsReason(e.message);
@@ -122,7 +122,7 @@ function ProposalCard({ p, locale, startsOn, onDone }: { p: Proposal; locale: st
     <li className="card space-y-2" data-testid="progression-proposal">
       <p className="text-lg font-semibold">
         {p.clientName ? (
-          <a href={`/clients/${p.clientId}#progression`} className="inline-flex min-h-12 items-center">
+          <a href={`/clients/${p.clientId}/prescription#progression`} className="inline-flex min-h-12 items-center">
             {p.clientName}
           </a>
         ) : null}

@@ -1,7 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { SCREENING_STATUS_LABELS } from '../../lib/care/screening-labels';
 import { api, ApiError, useApi } from '../api';
-import { dayLabel, instantLabel } from '../client/dates';
+import { formatDate, formatDateTime } from '../../lib/time/format';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { TextAreaField, TextField } from '../ui/Field';
@@ -34,20 +34,21 @@ const STATUSES: Status[] = ['not_assessed', 'no_concern', 'concern'];
 /** The clinic's screening before (and during) a home program: one status and note per item; every save is a new version. */
 export default function ScreeningForm({ clientId, locale, timeZone, today }: { clientId: string; locale: string; timeZone: string; today: string }) {
   const [data, reload] = useApi<ScreeningData>(`/api/clients/${clientId}/screening`);
+  // Kept here: a save reloads the data and the editor starts again from the new version, with the message still shown.
+  const [saved, setSaved] = useState(false);
   return (
     <Loaded value={data} reload={reload} label="the screening">
-      {(d) => <Editor key={d.current?.id ?? 'none'} data={d} clientId={clientId} locale={locale} timeZone={timeZone} today={today} onSaved={reload} />}
+      {(d) => <Editor key={d.current?.id ?? 'none'} data={d} clientId={clientId} locale={locale} timeZone={timeZone} today={today} saved={saved} onSaving={() => setSaved(false)} onSaved={() => { setSaved(true); reload(); }} />}
     </Loaded>
   );
 }
 
-function Editor({ data, clientId, locale, timeZone, today, onSaved }: { data: ScreeningData; clientId: string; locale: string; timeZone: string; today: string; onSaved: () => void }) {
+function Editor({ data, clientId, locale, timeZone, today, saved, onSaving, onSaved }: { data: ScreeningData; clientId: string; locale: string; timeZone: string; today: string; saved: boolean; onSaving: () => void; onSaved: () => void }) {
   const start = (id: string) => data.current?.items.find((i) => i.id === id);
   const [items, setItems] = useState(() => data.items.map((i) => ({ id: i.id, label: i.label, status: start(i.id)?.status ?? 'not_assessed', note: start(i.id)?.note ?? '', lastScanOn: start(i.id)?.lastScanOn ?? '' })));
   const [assessedOn, setAssessedOn] = useState(today);
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<ApiError | null>(null);
-  const [saved, setSaved] = useState(false);
   const set = (id: string, patch: Partial<(typeof items)[number]>) => setItems((all) => all.map((i) => (i.id === id ? { ...i, ...patch } : i)));
   const fieldError = (path: string) => error?.field(path);
 
@@ -55,13 +56,12 @@ function Editor({ data, clientId, locale, timeZone, today, onSaved }: { data: Sc
     e.preventDefault();
     setBusy(true);
     setError(null);
-    setSaved(false);
+    onSaving();
     try {
       await api('PUT', `/api/clients/${clientId}/screening`, {
         assessedOn,
         items: items.map((i) => ({ id: i.id, status: i.status, note: i.note.trim() || null, ...(i.id === 'bone_health' && i.lastScanOn ? { lastScanOn: i.lastScanOn } : {}) })),
       });
-      setSaved(true);
       onSaved();
     } catch (err) {
       setError(err as ApiError);
@@ -74,7 +74,7 @@ function Editor({ data, clientId, locale, timeZone, today, onSaved }: { data: Sc
     <div className="space-y-4">
       {data.current ? (
         <p className="text-ink-soft">
-          Version {data.current.version}, assessed on {dayLabel(data.current.assessedOn, locale)} by {data.current.assessedBy.name ?? 'the clinic'}.
+          Version {data.current.version}, assessed on {formatDate(data.current.assessedOn, locale, 'day')} by {data.current.assessedBy.name ?? 'the clinic'}.
         </p>
       ) : (
         <p className="text-ink-soft">No screening recorded yet.</p>
@@ -128,7 +128,7 @@ function Editor({ data, clientId, locale, timeZone, today, onSaved }: { data: Sc
             {data.history.slice(1).map((v) => (
               <li key={v.id}>
                 <p className="font-medium">
-                  Version {v.version}, assessed {dayLabel(v.assessedOn, locale)} by {v.assessedBy.name ?? 'the clinic'} (recorded {instantLabel(v.recordedAt, locale, timeZone)})
+                  Version {v.version}, assessed {formatDate(v.assessedOn, locale, 'day')} by {v.assessedBy.name ?? 'the clinic'} (recorded {formatDateTime(v.recordedAt, locale, timeZone, 'dateShort')})
                 </p>
                 <ul className="list-disc pl-6 text-sm">
                   {v.items.map((i) => (

@@ -4,13 +4,12 @@ import { Loaded } from '../ui/Loading';
 import { AdherenceChart } from './AdherenceChart';
 import { useOnProgramChange } from './changes';
 import { CurrentPerWattChart } from './CurrentPerWattChart';
-import { EnduranceChart } from './EnduranceChart';
 import { DurationChart } from './DurationChart';
 import { PowerChart } from './PowerChart';
 import type { AdherenceData, TrendsData } from './types';
 
-/** The four progress charts of the client page. */
-export default function ClientCharts({ clientId, locale, timeZone, currentIsoWeek }: { clientId: string; locale: string; timeZone: string; currentIsoWeek: string }) {
+/** The four headline trends of the client's overview, each with its sentence and its numbers as a table. */
+export default function ClientCharts({ clientId, locale, timeZone, currentIsoWeek, compact = false }: { clientId: string; locale: string; timeZone: string; currentIsoWeek: string; compact?: boolean }) {
   const [trends, reloadTrends] = useApi<TrendsData>(`/api/clients/${clientId}/trends`);
   const [adherence, reloadAdherence] = useApi<AdherenceData>(`/api/clients/${clientId}/adherence?weeks=12`);
   useOnProgramChange(reloadTrends);
@@ -21,10 +20,9 @@ export default function ClientCharts({ clientId, locale, timeZone, currentIsoWee
         {(t) =>
           t.sessions.length ? (
             <>
-              <PowerChart trends={t} locale={locale} timeZone={timeZone} />
-              <DurationChart trends={t} locale={locale} timeZone={timeZone} />
-              <CurrentPerWattChart trends={t} locale={locale} timeZone={timeZone} />
-              <EnduranceChart trends={t} locale={locale} timeZone={timeZone} />
+              <PowerChart trends={t} locale={locale} timeZone={timeZone} compact={compact} />
+              <DurationChart trends={t} locale={locale} timeZone={timeZone} compact={compact} />
+              <CurrentPerWattChart trends={t} locale={locale} timeZone={timeZone} compact={compact} />
             </>
           ) : (
             <div className="lg:col-span-2">
@@ -34,7 +32,7 @@ export default function ClientCharts({ clientId, locale, timeZone, currentIsoWee
         }
       </Loaded>
       <Loaded value={adherence} reload={reloadAdherence} label="the weekly sessions">
-        {(a) => <AdherenceChart adherence={a} locale={locale} currentIsoWeek={currentIsoWeek} />}
+        {(a) => <AdherenceChart adherence={a} locale={locale} currentIsoWeek={currentIsoWeek} compact={compact} />}
       </Loaded>
     </div>
   );

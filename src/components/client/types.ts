@@ -98,6 +98,7 @@ export interface FlagWithHistory {
   raisedAt: string;
   updatedAt: string;
   reason: string;
+  evidence: unknown;
   clearedAt: string | null;
   snoozedUntil: string | null;
   history: FlagEvent[];

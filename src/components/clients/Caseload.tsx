@@ -12,7 +12,7 @@ import { FlagSummary } from '../triage/FlagSummary';
 import type { ClientRow } from '../triage/types';
 
 /** The staff caseload: every client of the clinic with their open flags and figures. */
-export default function Caseload() {
+export default function Caseload({ locale }: { locale: string }) {
   const [value, reload] = useApi<{ clients: ClientRow[] }>('/api/caseload');
   const [filter, setFilter] = useState<RowFilter>(NO_FILTER);
   const [sorting, setSorting] = useState<SortingState>([{ id: 'client', desc: false }]);
@@ -50,7 +50,7 @@ export default function Caseload() {
               </div>
               <FlagFilters rows={clients} filter={filter} onChange={setFilter} byFlag={false} />
               {visible.length ? (
-                <ClientTable caption="Caseload" rows={visible} renderFlags={renderFlags} sorting={sorting} onSortingChange={setSorting} />
+                <ClientTable caption="Caseload" rows={visible} renderFlags={renderFlags} sorting={sorting} onSortingChange={setSorting} locale={locale} />
               ) : (
                 <EmptyState title="No client matches that name">
                   <Button variant="secondary" className="mt-2" onClick={() => setFilter(NO_FILTER)}>

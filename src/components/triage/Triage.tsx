@@ -9,12 +9,12 @@ import { filterRows, isFiltering, NO_FILTER, type RowFilter } from './filter';
 import { FlagActionDialog, type ActionTarget } from './FlagActionDialog';
 import { FlagFilters } from './FlagFilters';
 import { TriageFlags } from './TriageFlags';
-import type { ClientRow, FlagAction, FlagItem } from './types';
+import type { ClientRow, FlagItem } from './types';
 
 const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
 
 /** The therapist's home: every client with open flags, and what to do about each flag. */
-export default function Triage() {
+export default function Triage({ locale }: { locale: string }) {
   const [value, reload] = useApi<ClientRow[]>('/api/triage');
   const [filter, setFilter] = useState<RowFilter>(NO_FILTER);
   const [sorting, setSorting] = useState<SortingState>([{ id: 'flags', desc: false }]);
@@ -25,14 +25,14 @@ export default function Triage() {
   const rows = value.state === 'ready' ? value.data : null;
   const now = useMemo(() => new Date(), [rows]);
 
-  const onAction = useCallback(
-    (row: ClientRow) => (flag: FlagItem, action: FlagAction) => {
+  const onAct = useCallback(
+    (row: ClientRow) => (flag: FlagItem) => {
       opener.current = document.activeElement as HTMLElement | null;
-      setTarget({ flag, clientName: row.clientName, action });
+      setTarget({ flag, clientName: row.clientName, timeZone: row.timeZone });
     },
     [],
   );
-  const renderFlags = useCallback((row: ClientRow) => <TriageFlags row={row} now={now} onAction={onAction(row)} />, [now, onAction]);
+  const renderFlags = useCallback((row: ClientRow) => <TriageFlags row={row} now={now} locale={locale} onAct={onAct(row)} />, [now, locale, onAct]);
 
   function cancelled() {
     setTarget(null);
@@ -82,7 +82,7 @@ export default function Triage() {
                 <>
                   <FlagFilters rows={all} filter={filter} onChange={setFilter} byFlag />
                   {visible.length ? (
-                    <ClientTable caption="Clients with open flags" rows={visible} renderFlags={renderFlags} sorting={sorting} onSortingChange={setSorting} />
+                    <ClientTable caption="Clients with open flags, most urgent first" rows={visible} renderFlags={renderFlags} sorting={sorting} onSortingChange={setSorting} locale={locale} />
                   ) : (
                     <EmptyState title="No flags match these filters">
                       <Button variant="secondary" className="mt-2" onClick={() => setFilter(NO_FILTER)}>
@@ -96,7 +96,7 @@ export default function Triage() {
           );
         }}
       </Loaded>
-      <FlagActionDialog target={target} onDone={done} onCancel={cancelled} />
+      <FlagActionDialog target={target} locale={locale} onDone={done} onCancel={cancelled} />
     </div>
   );
 }

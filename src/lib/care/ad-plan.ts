@@ -3,10 +3,9 @@
 // their physician prescribed for an episode (the clinic's own free text:
 // Kinloop never suggests medication), who to call and emergency contacts.
 // Every save is a new version. Staff write it; the rider and carers read it.
-import type { Knex } from 'knex';
 import { z } from 'zod';
-import { accessClient } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope, type Db } from '../data';
 import { line, paragraph } from '../validation/fields';
 
 const text = (label: string, max: number) => paragraph(z.string().trim().max(max, `${label}: at most ${max} characters.`), label);
@@ -87,33 +86,30 @@ export function adPlanView(row: {
 }
 export type AdPlanView = ReturnType<typeof adPlanView>;
 
-async function versions(knex: Knex, clientId: string) {
-  return knex('ad_plans as p').join('users as u', 'u.id', 'p.created_by').where('p.client_id', clientId).orderBy('p.version', 'desc').select('p.*', 'u.name as created_by_name');
+async function versions(db: Db, clientId: string) {
+  return db('ad_plans as p').join('users as u', 'u.id', 'p.created_by').where('p.client_id', clientId).orderBy('p.version', 'desc').select('p.*', 'u.name as created_by_name');
 }
 
 /** The current plan of a client, without an audit entry (for pages and answers that audit already). */
-export async function currentAdPlan(knex: Knex, clientId: string): Promise<AdPlanView | null> {
-  const row = await knex('ad_plans as p').join('users as u', 'u.id', 'p.created_by').where('p.client_id', clientId).orderBy('p.version', 'desc').first('p.*', 'u.name as created_by_name');
+export async function currentAdPlan(db: Db, clientId: string): Promise<AdPlanView | null> {
+  const row = await db('ad_plans as p').join('users as u', 'u.id', 'p.created_by').where('p.client_id', clientId).orderBy('p.version', 'desc').first('p.*', 'u.name as created_by_name');
   return row ? adPlanView(row) : null;
 }
 
 /** The rider, carers and staff read the plan; staff also see earlier versions. */
 export async function readAdPlan(ctx: RequestContext, clientId: string) {
-  const client = await accessClient(ctx, clientId, 'read', 'ad_plan.view');
-  const rows = await versions(ctx.knex, client.id);
-  const staff = ctx.viewer.memberships.some((m) => m.clinicId === client.clinic_id);
-  return { current: rows[0] ? adPlanView(rows[0]) : null, history: staff ? rows.map(adPlanView) : [] };
+  const client = await scope(ctx).client(clientId, 'read', 'ad_plan.view');
+  const rows = await versions(client.db, client.id);
+  return { current: rows[0] ? adPlanView(rows[0]) : null, history: client.managed ? rows.map(adPlanView) : [] };
 }
 
 export async function saveAdPlan(ctx: RequestContext, clientId: string, input: AdPlanInput) {
-  const client = await accessClient(ctx, clientId, 'manage', 'ad_plan.change');
-  await ctx.knex.transaction(async (trx) => {
-    await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`ad_plan:${client.id}`]);
-    const latest = await trx('ad_plans').where({ client_id: client.id }).max('version as v').first();
-    const [created] = await trx('ad_plans')
+  const client = await scope(ctx).client(clientId, 'manage', 'ad_plan.change');
+  await client.transaction(async (tx) => {
+    await tx.lock(`ad_plan:${client.id}`);
+    const latest = await tx.db('ad_plans').max('version as v').first();
+    const [created] = await tx.db('ad_plans')
       .insert({
-        clinic_id: client.clinic_id,
-        client_id: client.id,
         version: Number(latest?.v ?? 0) + 1,
         resting_systolic: input.restingSystolic ?? null,
         resting_diastolic: input.restingDiastolic ?? null,
@@ -125,8 +121,8 @@ export async function saveAdPlan(ctx: RequestContext, clientId: string, input: A
         created_by: ctx.viewer.userId,
       })
       .returning(['id', 'version']);
-    await auditAs(ctx, { action: 'ad_plan.version_created', clinicId: client.clinic_id, clientId: client.id, recordType: 'ad_plan', recordId: created.id, detail: { version: created.version } }, trx);
+    await tx.audit({ action: 'ad_plan.version_created', recordType: 'ad_plan', recordId: created.id, detail: { version: created.version } });
   });
-  const rows = await versions(ctx.knex, client.id);
+  const rows = await versions(client.db, client.id);
   return { current: adPlanView(rows[0]), history: rows.map(adPlanView) };
 }

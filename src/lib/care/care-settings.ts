@@ -2,10 +2,9 @@
 // clearance holds before its review, and the absolute systolic level that
 // counts as an episode for a client at risk of autonomic dysreflexia whatever
 // the baseline. Kept apart from the flag thresholds, which judge rides.
-import type { Knex } from 'knex';
 import { z } from 'zod';
-import { staffClinic } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope, type Db } from '../data';
 import { DEFAULT_AD_ABSOLUTE_SYSTOLIC_MMHG } from '../checks/evaluate-check';
 
 export const DEFAULT_CLEARANCE_REVIEW_MONTHS = 12;
@@ -43,15 +42,15 @@ export function careSettingsOf(row: { clearance_review_months: number | null; ad
   };
 }
 
-export async function clinicCareSettings(knex: Knex | Knex.Transaction, clinicId: string): Promise<CareSettings> {
+export async function clinicCareSettings(knex: Db, clinicId: string): Promise<CareSettings> {
   return careSettingsOf(await knex('clinics').where({ id: clinicId }).first('clearance_review_months', 'ad_absolute_systolic'));
 }
 
 export async function readCareSettings(ctx: RequestContext, clinicId?: string) {
-  const id = staffClinic(ctx.viewer, ['admin', 'therapist'], clinicId);
-  const row = await ctx.knex('clinics').where({ id }).first('clearance_review_months', 'ad_absolute_systolic');
+  const grant = scope(ctx).clinic(['admin', 'therapist'], clinicId);
+  const row = await grant.clinic();
   return {
-    clinicId: id,
+    clinicId: grant.id,
     ...careSettingsOf(row),
     isDefault: { clearanceReviewMonths: row.clearance_review_months === null, adAbsoluteSystolic: row.ad_absolute_systolic === null },
     defaults: { clearanceReviewMonths: DEFAULT_CLEARANCE_REVIEW_MONTHS, adAbsoluteSystolic: DEFAULT_AD_ABSOLUTE_SYSTOLIC_MMHG },
@@ -60,9 +59,11 @@ export async function readCareSettings(ctx: RequestContext, clinicId?: string) {
 
 /** Admins change them; null goes back to Kinloop's default. */
 export async function saveCareSettings(ctx: RequestContext, input: z.infer<typeof careSettingsSchema>, clinicId?: string) {
-  const id = staffClinic(ctx.viewer, ['admin'], clinicId);
-  await ctx.knex('clinics').where({ id }).update({ clearance_review_months: input.clearanceReviewMonths, ad_absolute_systolic: input.adAbsoluteSystolic });
-  await auditAs(ctx, { action: 'clinic.care_settings_change', clinicId: id, detail: input });
-  return readCareSettings(ctx, id);
+  const clinic = scope(ctx).clinic(['admin'], clinicId);
+  await clinic.transaction(async (tx) => {
+    await tx.db('clinics').update({ clearance_review_months: input.clearanceReviewMonths, ad_absolute_systolic: input.adAbsoluteSystolic });
+    await tx.audit({ action: 'clinic.care_settings_change', detail: input });
+  });
+  return readCareSettings(ctx, clinic.id);
 }
 

@@ -2,12 +2,14 @@
 // outside the rides: readiness, whether a client at risk has a dysreflexia
 // plan on file, and whether a check found no baseline to compare with.
 // One read per table for a whole list of clients.
-import type { Knex } from 'knex';
 import { assessAdRisk } from '../checks/injury-level';
+import type { RequestContext } from '../auth/context';
+import { scope, type Db } from '../data';
 import type { ClientRow } from '../db/tables';
-import { CLEARANCE_DUE_DAYS } from './care-settings';
+import { formatDate } from '../time/format';
+import { CLEARANCE_DUE_DAYS, clinicCareSettings, type CareSettings } from './care-settings';
 import { readinessOf, type Readiness, type ScreeningStatus } from './readiness';
-import { clientToday } from './today';
+import { localDate } from '../time/local-date';
 
 export interface CareStatus {
   readiness: Readiness;
@@ -22,7 +24,7 @@ export interface CareStatus {
 
 type Client = Pick<ClientRow, 'id' | 'clinic_id' | 'time_zone' | 'injury_level' | 'ad_risk' | 'baseline_systolic'>;
 
-export async function careStatuses(knex: Knex, clients: Client[], now = new Date()): Promise<Map<string, CareStatus>> {
+export async function careStatuses(knex: Db, clients: Client[], now = new Date()): Promise<Map<string, CareStatus>> {
   const ids = clients.map((c) => c.id);
   if (!ids.length) return new Map();
   const [screenings, clearances, plans, missing] = await Promise.all([
@@ -42,7 +44,7 @@ export async function careStatuses(knex: Knex, clients: Client[], now = new Date
       return [
         c.id,
         {
-          readiness: readinessOf({ screening: screeningOf.get(c.id) ?? null, clearance, today: clientToday(c.time_zone, now), dueWithinDays: CLEARANCE_DUE_DAYS }),
+          readiness: readinessOf({ screening: screeningOf.get(c.id) ?? null, clearance, today: localDate(now, c.time_zone), dueWithinDays: CLEARANCE_DUE_DAYS }),
           clearanceReviewOn: clearance?.reviewOn ?? null,
           atRisk,
           noPlanOnFile: atRisk && !planned.has(c.id),
@@ -53,21 +55,28 @@ export async function careStatuses(knex: Knex, clients: Client[], now = new Date
   );
 }
 
-export async function careStatusOf(knex: Knex, client: Client, now = new Date()): Promise<CareStatus> {
+export async function careStatusOf(knex: Db, client: Client, now = new Date()): Promise<CareStatus> {
   return (await careStatuses(knex, [client], now)).get(client.id)!;
+}
+
+/** A client's care status and their clinic's care settings, for the record's pages (staff; the read is audited with the page's). */
+export async function readCareOf(ctx: RequestContext, clientId: string): Promise<{ status: CareStatus; settings: CareSettings }> {
+  const client = await scope(ctx).client(clientId, 'manage', 'client.view');
+  return { status: await careStatusOf(client.db, client.row), settings: await clinicCareSettings(client.db, client.clinicId) };
 }
 
 /**
  * Digest lines for clearances whose review falls due within 30 days or has
  * passed, by client: what the therapist's daily digest adds to the flags.
  */
-export async function clearanceReviewLines(knex: Knex, clients: (Client & Pick<ClientRow, 'display_name'>)[], now = new Date()): Promise<Map<string, string>> {
+export async function clearanceReviewLines(knex: Db, clients: (Client & Pick<ClientRow, 'display_name'>)[], now: Date, localeOf: (c: Client) => string): Promise<Map<string, string>> {
   const statuses = await careStatuses(knex, clients, now);
   const out = new Map<string, string>();
   for (const c of clients) {
     const s = statuses.get(c.id)!;
-    if (s.readiness === 'clearance_due') out.set(c.id, `${c.display_name} — medical clearance due for review on ${s.clearanceReviewOn}.`);
-    if (s.readiness === 'clearance_expired') out.set(c.id, `${c.display_name} — medical clearance expired on ${s.clearanceReviewOn}; a new one is needed.`);
+    const on = s.clearanceReviewOn ? formatDate(s.clearanceReviewOn, localeOf(c), 'date') : '';
+    if (s.readiness === 'clearance_due') out.set(c.id, `${c.display_name} — medical clearance due for review on ${on}.`);
+    if (s.readiness === 'clearance_expired') out.set(c.id, `${c.display_name} — medical clearance expired on ${on}; a new one is needed.`);
   }
   return out;
 }

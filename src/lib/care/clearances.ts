@@ -3,16 +3,16 @@
 // with its date, the clearing clinician and a review date. Staff only.
 import { DateTime } from 'luxon';
 import { z } from 'zod';
-import { accessClient, accessClientRecord } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
-import { HttpError, badRequest } from '../http/errors';
+import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
+import { HttpError, badRequest, notFound } from '../http/errors';
 import { discardRest } from '../http/request';
 import { cleanFileName } from '../ingest/file-name';
 import { receiveFiles, type ReceiveRules } from '../ingest/receive';
 import { deleteObjects, getObjectStream } from '../storage/s3';
 import { calendarDate, line } from '../validation/fields';
 import { clinicCareSettings } from './care-settings';
-import { clientToday } from './today';
+import { localDate } from '../time/local-date';
 
 export const MAX_CLEARANCE_BYTES = 10 * 1024 * 1024;
 
@@ -97,26 +97,24 @@ export function clearanceView(row: {
 export async function uploadClearance(ctx: RequestContext, clientId: string, request: Request) {
   let client;
   try {
-    client = await accessClient(ctx, clientId, 'manage', 'clearance.create');
+    client = await scope(ctx).client(clientId, 'manage', 'clearance.create');
   } catch (err) {
     // Refused before the body was read: it is dropped, so that the answer reaches the caller.
     if (request.body) discardRest(request.body.getReader());
     throw err;
   }
-  const received = await receiveFiles(request, CLEARANCE_FILES, async () => `clearances/${client.clinic_id}/${client.id}`);
+  const received = await receiveFiles(request, CLEARANCE_FILES, async () => `clearances/${client.clinicId}/${client.id}`);
   const file = received.files[0];
   try {
     const input = fieldsOf(received.fields);
-    if (input.clearedOn > clientToday(client.time_zone)) {
+    if (input.clearedOn > localDate(new Date(), client.row.time_zone)) {
       throw badRequest('Cleared on: the clearance cannot be dated in the future.', { fields: [{ path: 'clearedOn', message: 'Choose today or an earlier day.' }] });
     }
-    const settings = await clinicCareSettings(ctx.knex, client.clinic_id);
+    const settings = await clinicCareSettings(client.db, client.clinicId);
     const reviewOn = input.reviewOn ?? DateTime.fromISO(input.clearedOn, { zone: 'UTC' }).plus({ months: settings.clearanceReviewMonths }).toISODate()!;
-    const row = await ctx.knex.transaction(async (trx) => {
-      const [created] = await trx('clearances')
+    const row = await client.transaction(async (tx) => {
+      const [created] = await tx.db('clearances')
         .insert({
-          clinic_id: client.clinic_id,
-          client_id: client.id,
           storage_key: file.storageKey,
           sha256: file.sha256,
           byte_size: file.byteSize,
@@ -128,7 +126,7 @@ export async function uploadClearance(ctx: RequestContext, clientId: string, req
           uploaded_by: ctx.viewer.userId,
         })
         .returning('*');
-      await auditAs(ctx, { action: 'clearance.upload', clinicId: client.clinic_id, clientId: client.id, recordType: 'clearance', recordId: created.id, detail: { clearedOn: input.clearedOn, reviewOn, sha256: file.sha256 } }, trx);
+      await tx.audit({ action: 'clearance.upload', recordType: 'clearance', recordId: created.id, detail: { clearedOn: input.clearedOn, reviewOn, sha256: file.sha256 } });
       return created;
     });
     return clearanceView({ ...row, uploaded_by_name: ctx.viewer.name });
@@ -139,17 +137,16 @@ export async function uploadClearance(ctx: RequestContext, clientId: string, req
 }
 
 export async function listClearances(ctx: RequestContext, clientId: string) {
-  const client = await accessClient(ctx, clientId, 'manage', 'clearances.list');
-  const rows = await ctx.knex('clearances as c').join('users as u', 'u.id', 'c.uploaded_by').where('c.client_id', client.id).orderBy('c.created_at', 'desc').select('c.*', 'u.name as uploaded_by_name');
+  const client = await scope(ctx).client(clientId, 'manage', 'clearances.list');
+  const rows = await client.db('clearances as c').join('users as u', 'u.id', 'c.uploaded_by').orderBy('c.created_at', 'desc').select('c.*', 'u.name as uploaded_by_name');
   return { clearances: rows.map(clearanceView) };
 }
 
-const isUuid = (id: string) => /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id);
-
 /** The stored document, for the client's clinic staff. */
 export async function clearanceDocument(ctx: RequestContext, clientId: string, clearanceId: string) {
-  const found = isUuid(clearanceId) && isUuid(clientId) ? await ctx.knex('clearances').where({ id: clearanceId, client_id: clientId }).first() : undefined;
-  const { row } = await accessClientRecord(ctx, found, { what: 'That clearance document', type: 'clearance', id: clearanceId }, 'manage', 'clearance.download');
+  const { row } = await scope(ctx).record('clearance', clearanceId, 'manage', 'clearance.download');
+  // A document of another of the caller's clients, asked for under this one: the same answer as a missing one.
+  if (row.client_id !== clientId) throw notFound('That clearance document');
   const { body, length } = await getObjectStream(row.storage_key);
   return { row, body, length };
 }

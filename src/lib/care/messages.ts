@@ -3,13 +3,15 @@
 // (never edited or deleted) and in the audit log. Each new message e-mails the
 // others that a message is waiting, never its text: no clinical detail leaves
 // Kinloop by e-mail. Opening the thread marks it read for the reader.
-import type { Knex } from 'knex';
 import { z } from 'zod';
-import { accessClient, canManageClient } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
 import { config } from '../config';
+import { scope, type ClientGrant, type Db } from '../data';
 import type { ClientRow, FlagRow } from '../db/tables';
+import { flagReason } from '../flags/reason';
 import { FLAG_KIND_WORDS } from '../flags/words';
+import { FALLBACK_LOCALE } from '../time/format';
+import { clinicLocale } from '../time/locale';
 import { badRequest } from '../http/errors';
 import { enqueueEmail } from '../mail/outbox';
 import { notificationEmail, type Recipient } from '../notifications/compose';
@@ -28,20 +30,15 @@ export const messageInputSchema = z
 
 type Role = 'staff' | 'client' | 'carer';
 
-async function participantRole(knex: Knex, client: ClientRow, userId: string): Promise<Role> {
-  if (client.user_id === userId) return 'client';
-  const staff = await knex('memberships').where({ user_id: userId, clinic_id: client.clinic_id }).first('id');
-  return staff ? 'staff' : 'carer';
-}
-
 /** The thread, newest first, with what the reader had not read; opening it marks it read. */
 export async function readThread(ctx: RequestContext, clientId: string) {
-  const client = await accessClient(ctx, clientId, 'read', 'messages.view');
-  const rows = await ctx.knex('messages as m').join('users as u', 'u.id', 'm.author_id').where('m.client_id', client.id).orderBy('m.created_at', 'desc').limit(200).select('m.*', 'u.name as author_name');
-  const reads = await ctx.knex('message_reads as r').join('users as u', 'u.id', 'r.user_id').where('r.client_id', client.id).select('r.user_id', 'r.read_up_to', 'u.name');
-  const staffIds = new Set<string>(await ctx.knex('memberships').where({ clinic_id: client.clinic_id }).pluck('user_id'));
+  const client = await scope(ctx).client(clientId, 'read', 'messages.view');
+  const rows = await client.db('messages as m').join('users as u', 'u.id', 'm.author_id').orderBy('m.created_at', 'desc').limit(200).select('m.*', 'u.name as author_name');
+  const reads = await client.db('message_reads as r').join('users as u', 'u.id', 'r.user_id').select('r.user_id', 'r.read_up_to', 'u.name');
+  // Who is staff is a fact about the thread's authors that a carer or the client cannot read from memberships themselves.
+  const staffIds = await staffOf(client.system('the roles of a thread’s authors'), client);
   const mine = reads.find((r) => r.user_id === ctx.viewer.userId)?.read_up_to as Date | undefined;
-  const roleOf = (userId: string): Role => (userId === client.user_id ? 'client' : staffIds.has(userId) ? 'staff' : 'carer');
+  const roleOf = (userId: string): Role => (userId === client.row.user_id ? 'client' : staffIds.has(userId) ? 'staff' : 'carer');
   const messages = rows.map((m) => ({
     id: m.id as string,
     body: m.body as string,
@@ -52,40 +49,60 @@ export async function readThread(ctx: RequestContext, clientId: string) {
     // Who else has opened the thread since it was sent.
     readBy: reads.filter((r) => r.user_id !== m.author_id && r.read_up_to >= m.created_at).map((r) => r.name as string),
   }));
-  if (rows.length) await markRead(ctx.knex, client.id, ctx.viewer.userId, rows[0].created_at);
-  return { clientId: client.id, clientName: client.display_name, staff: canManageClient(ctx.viewer, client), messages };
+  if (rows.length) await markRead(client, ctx.viewer.userId, rows[0].created_at);
+  return { clientId: client.id, clientName: client.row.display_name, staff: client.managed, messages };
 }
 
-async function markRead(knex: Knex | Knex.Transaction, clientId: string, userId: string, upTo: Date) {
-  await knex('message_reads')
-    .insert({ client_id: clientId, user_id: userId, read_up_to: upTo })
-    .onConflict(['client_id', 'user_id'])
-    .merge({ read_up_to: knex.raw('greatest(message_reads.read_up_to, excluded.read_up_to)') });
+async function staffOf(db: Db, client: ClientGrant): Promise<Set<string>> {
+  return new Set<string>(await db('memberships').where({ clinic_id: client.clinicId }).pluck('user_id'));
+}
+
+/** The reader's own position in the thread: it only moves forward. */
+async function markRead(client: ClientGrant, userId: string, upTo: Date) {
+  await client.transaction(async (tx) => {
+    await tx.lock(`message_read:${client.id}:${userId}`);
+    const at: { read_up_to: Date } | undefined = await tx.db('message_reads').where({ user_id: userId }).first('read_up_to');
+    if (!at) await tx.db('message_reads').insert({ user_id: userId, read_up_to: upTo });
+    else if (at.read_up_to < upTo) await tx.db('message_reads').where({ user_id: userId }).update({ read_up_to: upTo });
+  });
 }
 
 /** What a flag quote says: its kind and reason, as triage shows them. */
-export function flagQuote(flag: Pick<FlagRow, 'kind' | 'reason' | 'raised_at'>): string {
-  return `${FLAG_KIND_WORDS[flag.kind as keyof typeof FLAG_KIND_WORDS] ?? flag.kind}: ${flag.reason}`;
+export function flagQuote(flag: Pick<FlagRow, 'kind' | 'reason' | 'evidence'>, locale: string): string {
+  return `${FLAG_KIND_WORDS[flag.kind as keyof typeof FLAG_KIND_WORDS] ?? flag.kind}: ${flagReason(flag, locale)}`;
+}
+
+/** The quote of one of the client's flags, for staff opening the thread from triage; null for anything else. */
+export async function quoteOfFlag(ctx: RequestContext, clientId: string, flagId: string, locale: string): Promise<string | null> {
+  const client = await scope(ctx).client(clientId, 'read', 'messages.view');
+  if (!client.managed || !/^[0-9a-f-]{36}$/i.test(flagId)) return null;
+  const flag = await client.db<FlagRow>('flags').where({ id: flagId }).first();
+  return flag ? flagQuote(flag, locale) : null;
+}
+
+/** The clients among `ids` the caller may read, by name: a carer of several chooses one thread. */
+export async function threadChoices(ctx: RequestContext, ids: string[]) {
+  return ids.length ? scope(ctx).clients().whereIn('id', ids).orderBy('display_name').select('id', 'display_name') : [];
 }
 
 export async function sendMessage(ctx: RequestContext, clientId: string, input: z.infer<typeof messageInputSchema>) {
-  const client = await accessClient(ctx, clientId, 'contribute', 'message.send');
+  const client = await scope(ctx).client(clientId, 'contribute', 'message.send');
   let quote: string | null = null;
   if (input.flagId) {
-    const flag = canManageClient(ctx.viewer, client) ? await ctx.knex<FlagRow>('flags').where({ id: input.flagId, client_id: client.id }).first() : undefined;
+    // Flags are the clinic's: only its staff quote one (the grant reads no flags for anyone else).
+    const flag = client.managed ? await client.db<FlagRow>('flags').where({ id: input.flagId }).first() : undefined;
     if (!flag) throw badRequest('That flag is not one of this client’s flags.', { fields: [{ path: 'flagId', message: 'Choose a flag of this client.' }] });
-    quote = flagQuote(flag);
+    const clinic = await client.db('clinics').where({ id: client.clinicId }).first('locale', 'time_zone');
+    quote = flagQuote(flag, clinic ? clinicLocale(clinic) : FALLBACK_LOCALE);
   }
-  const row = await ctx.knex.transaction(async (trx) => {
-    const [created] = await trx('messages')
-      .insert({ clinic_id: client.clinic_id, client_id: client.id, author_id: ctx.viewer.userId, body: input.body, flag_id: input.flagId ?? null, flag_quote: quote })
-      .returning('*');
-    await markRead(trx, client.id, ctx.viewer.userId, created.created_at);
-    await auditAs(ctx, { action: 'message.send', clinicId: client.clinic_id, clientId: client.id, recordType: 'message', recordId: created.id, detail: { flagId: input.flagId ?? null, chars: input.body.length } }, trx);
-    await noticeOthers(trx, client, created.id, ctx.viewer.userId);
+  const row = await client.transaction(async (tx) => {
+    const [created] = await tx.db('messages').insert({ author_id: ctx.viewer.userId, body: input.body, flag_id: input.flagId ?? null, flag_quote: quote }).returning('*');
+    await markRead(tx, ctx.viewer.userId, created.created_at);
+    await tx.audit({ action: 'message.send', recordType: 'message', recordId: created.id, detail: { flagId: input.flagId ?? null, chars: input.body.length } });
+    await noticeOthers(tx.system('notices of a new message to the others on the thread'), client.row, created.id, ctx.viewer.userId);
     return created;
   });
-  const role = await participantRole(ctx.knex, client, ctx.viewer.userId);
+  const role: Role = client.row.user_id === ctx.viewer.userId ? 'client' : client.managed ? 'staff' : 'carer';
   return {
     id: row.id as string,
     body: row.body as string,
@@ -103,10 +120,10 @@ export async function sendMessage(ctx: RequestContext, clientId: string, input: 
  * e-mail says only that a message is waiting and where; queued in the same
  * transaction as the message, so neither exists without the other.
  */
-async function noticeOthers(trx: Knex.Transaction, client: ClientRow, messageId: string, authorId: string) {
+async function noticeOthers(trx: Db, client: ClientRow, messageId: string, authorId: string) {
   const recipients = new Map<string, { to: Recipient }>();
-  for (const to of await therapistsOf(trx as unknown as Knex, client, 'messages')) recipients.set(to.userId, { to });
-  for (const to of await riderAndCarers(trx as unknown as Knex, client, 'messages')) if (!recipients.has(to.userId)) recipients.set(to.userId, { to });
+  for (const to of await therapistsOf(trx, client, 'messages')) recipients.set(to.userId, { to });
+  for (const to of await riderAndCarers(trx, client, 'messages')) if (!recipients.has(to.userId)) recipients.set(to.userId, { to });
   recipients.delete(authorId);
   for (const { to } of recipients.values()) {
     const url = `${config().publicUrl}/messages?clientId=${client.id}`;

@@ -1,23 +1,21 @@
 // Progression proposals: judged after the flags, whenever a client's rides or
 // days change (the flag job), and decided by the therapist. Accepting makes a
 // new prescription version that starts the next Monday in the client's zone.
-import type { Knex } from 'knex';
 import { z } from 'zod';
 import { computeAdherence } from '../adherence';
-import { accessClient, accessClientRecord } from '../auth/access';
-import { auditAs, auditListed, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { lock, scope, type Db } from '../data';
 import type { ClientRow, PrescriptionRow } from '../db/tables';
 import { forbidden, HttpError } from '../http/errors';
 import { loadHistory } from '../supervision/history';
 import { savePrescription } from '../supervision/prescriptions';
 import type { PrescriptionInput } from '../supervision/prescription-rules';
-import { localDate } from '../time/iso-week';
-import { addDays } from '../time/local-date';
+import { addDays, localDate } from '../time/local-date';
 import { calendarDate, line } from '../validation/fields';
 import { judgeProgression, nextMonday, type ProgressionJudgement, type ProgressionPlan } from './progression';
 
 /** Judges a client now and keeps one open proposal at most: the newest evidence wins. */
-export async function refreshProgression(knex: Knex, clientId: string, now = new Date()): Promise<ProgressionJudgement | null> {
+export async function refreshProgression(knex: Db, clientId: string, now = new Date()): Promise<ProgressionJudgement | null> {
   const client = await knex<ClientRow>('clients').where({ id: clientId }).whereNull('archived_at').first();
   if (!client) return null;
   const h = await loadHistory(knex, client);
@@ -49,7 +47,7 @@ export async function refreshProgression(knex: Knex, clientId: string, now = new
     return judgement;
   }
   await knex.transaction(async (trx) => {
-    await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`progression:${client.id}`]);
+    await lock(trx, `progression:${client.id}`);
     const [made] = await trx('progression_proposals')
       .insert({ clinic_id: client.clinic_id, client_id: client.id, prescription_id: current.id, iso_week: lastWeek.isoWeek, proposed: JSON.stringify(judgement.proposed), evidence: JSON.stringify(judgement.evidence) })
       .onConflict(['prescription_id', 'iso_week'])
@@ -63,7 +61,7 @@ export async function refreshProgression(knex: Knex, clientId: string, now = new
   return judgement;
 }
 
-async function supersede(knex: Knex | Knex.Transaction, ids: string[]) {
+async function supersede(knex: Db, ids: string[]) {
   if (ids.length) await knex('progression_proposals').whereIn('id', ids).where({ state: 'open' }).update({ state: 'superseded', decided_at: knex.fn.now() });
 }
 
@@ -98,17 +96,17 @@ function proposalView(row: {
 
 /** The "ready to progress" list beside triage: open proposals of the caller's clinics. */
 export async function readyToProgress(ctx: RequestContext) {
-  const clinics = ctx.viewer.memberships.map((m) => m.clinicId);
-  if (!clinics.length) throw forbidden('The list of riders ready to progress is for clinic staff.');
-  const rows = await ctx.knex('progression_proposals as p')
+  if (!ctx.viewer.memberships.length) throw forbidden('The list of riders ready to progress is for clinic staff.');
+  const s = scope(ctx);
+  const rows = await s
+    .progressions('p')
     .join('clients as c', 'c.id', 'p.client_id')
-    .join('prescriptions as rx', 'rx.id', 'p.prescription_id')
-    .whereIn('p.clinic_id', clinics)
+    .join(s.prescriptions().as('rx'), 'rx.id', 'p.prescription_id')
     .where('p.state', 'open')
     .whereNull('c.archived_at')
     .orderBy('p.created_at')
     .select('p.*', 'c.display_name', 'c.clinic_id as client_clinic_id', 'c.time_zone', 'rx.minutes_per_session', 'rx.resistance', 'rx.sessions_per_week');
-  await auditListed(ctx, 'progressions.view', rows.map((r) => ({ id: r.client_id, clinic_id: r.client_clinic_id })));
+  await s.listed('progressions.view', rows.map((r) => ({ id: r.client_id, clinic_id: r.client_clinic_id })));
   return rows.map((r) => ({
     ...proposalView(r),
     clientName: r.display_name as string,
@@ -119,9 +117,9 @@ export async function readyToProgress(ctx: RequestContext) {
 
 /** A client's proposals, newest first (staff). */
 export async function clientProgressions(ctx: RequestContext, clientId: string) {
-  const client = await accessClient(ctx, clientId, 'manage', 'progressions.list');
-  const rows = await ctx.knex('progression_proposals as p').leftJoin('users as u', 'u.id', 'p.decided_by').where('p.client_id', client.id).orderBy('p.created_at', 'desc').limit(20).select('p.*', 'u.name as decided_by_name');
-  return { proposals: rows.map(proposalView), startsOn: nextMonday(localDate(new Date(), client.time_zone)) };
+  const client = await scope(ctx).client(clientId, 'manage', 'progressions.list');
+  const rows = await client.db('progression_proposals as p').leftJoin('users as u', 'u.id', 'p.decided_by').orderBy('p.created_at', 'desc').limit(20).select('p.*', 'u.name as decided_by_name');
+  return { proposals: rows.map(proposalView), startsOn: nextMonday(localDate(new Date(), client.row.time_zone)) };
 }
 
 export const decisionSchema = z
@@ -136,27 +134,25 @@ export const decisionSchema = z
   })
   .strict();
 
-const isUuid = (id: string) => /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id);
-
 /** Accept (a new version from the next Monday; the values may be edited) or dismiss an open proposal. */
 export async function decideProgression(ctx: RequestContext, id: string, input: z.infer<typeof decisionSchema>) {
-  const found = isUuid(id) ? await ctx.knex('progression_proposals').where({ id }).first() : undefined;
-  const { row, client } = await accessClientRecord(ctx, found, { what: 'That progression proposal', type: 'progression', id }, 'manage', 'progression.decide');
+  const { row, client } = await scope(ctx).record('progression', id, 'manage', 'progression.decide');
+  const proposals = () => client.db('progression_proposals');
   if (row.state !== 'open') throw new HttpError(409, 'already_decided', `This proposal was ${row.state} already; the client page shows the current one.`);
   if (input.action === 'dismiss') {
-    const n = await ctx.knex('progression_proposals').where({ id, state: 'open' }).update({ state: 'dismissed', decided_by: ctx.viewer.userId, decided_at: ctx.knex.fn.now() });
+    const n = await proposals().where({ id, state: 'open' }).update({ state: 'dismissed', decided_by: ctx.viewer.userId, decided_at: client.db.fn.now() });
     if (!n) throw new HttpError(409, 'already_decided', 'Someone decided this proposal a moment ago; reload to see what they chose.');
-    await auditAs(ctx, { action: 'progression.dismiss', clinicId: client.clinic_id, clientId: client.id, recordType: 'progression', recordId: id, detail: { note: input.note ?? null } });
+    await client.audit({ action: 'progression.dismiss', recordType: 'progression', recordId: id, detail: { note: input.note ?? null } });
     return { proposal: proposalView({ ...row, state: 'dismissed', decided_by: ctx.viewer.userId, decided_by_name: ctx.viewer.name, decided_at: new Date() }), prescription: null };
   }
-  const base = await ctx.knex<PrescriptionRow>('prescriptions').where({ id: row.prescription_id }).first();
-  const latest = await ctx.knex<PrescriptionRow>('prescriptions').where({ client_id: client.id }).orderBy('version', 'desc').first();
+  const base: PrescriptionRow | undefined = await client.db<PrescriptionRow>('prescriptions').where({ id: row.prescription_id }).first();
+  const latest: PrescriptionRow | undefined = await client.db<PrescriptionRow>('prescriptions').orderBy('version', 'desc').first();
   if (!base || !latest || latest.id !== base.id) throw new HttpError(409, 'prescription_changed', 'The prescription has changed since this was proposed; it no longer applies.');
   const proposed = row.proposed as { minutesPerSession?: number; resistance?: number };
   const minutes = input.minutesPerSession ?? proposed.minutesPerSession ?? base.minutes_per_session;
   const resistance = input.resistance ?? proposed.resistance ?? (base.resistance === null ? undefined : Number(base.resistance));
   const edited = input.minutesPerSession !== undefined || input.resistance !== undefined || input.effectiveFrom !== undefined;
-  const claimed = await ctx.knex('progression_proposals').where({ id, state: 'open' }).update({ state: 'accepted', decided_by: ctx.viewer.userId, decided_at: ctx.knex.fn.now() });
+  const claimed = await proposals().where({ id, state: 'open' }).update({ state: 'accepted', decided_by: ctx.viewer.userId, decided_at: client.db.fn.now() });
   if (!claimed) throw new HttpError(409, 'already_decided', 'Someone decided this proposal a moment ago; reload to see what they chose.');
   const next: PrescriptionInput = {
     sessionsPerWeek: base.sessions_per_week,
@@ -168,17 +164,17 @@ export async function decideProgression(ctx: RequestContext, id: string, input: 
     channels: base.channels as PrescriptionInput['channels'],
     notes: base.notes ?? undefined,
     progression: base.progression as ProgressionPlan,
-    effectiveFrom: input.effectiveFrom ?? nextMonday(localDate(new Date(), client.time_zone)),
+    effectiveFrom: input.effectiveFrom ?? nextMonday(localDate(new Date(), client.row.time_zone)),
     notClearedReason: input.notClearedReason,
   };
   let saved;
   try {
     saved = await savePrescription(ctx, client.id, next, { progressionProposalId: id, edited });
   } catch (err) {
-    await ctx.knex('progression_proposals').where({ id, state: 'accepted' }).whereNull('result_prescription_id').update({ state: 'open', decided_by: null, decided_at: null });
+    await proposals().where({ id, state: 'accepted' }).whereNull('result_prescription_id').update({ state: 'open', decided_by: null, decided_at: null });
     throw err;
   }
-  await ctx.knex('progression_proposals').where({ id }).update({ result_prescription_id: saved.id });
-  await auditAs(ctx, { action: 'progression.accept', clinicId: client.clinic_id, clientId: client.id, recordType: 'progression', recordId: id, detail: { edited, prescriptionId: saved.id, note: input.note ?? null } });
+  await proposals().where({ id }).update({ result_prescription_id: saved.id });
+  await client.audit({ action: 'progression.accept', recordType: 'progression', recordId: id, detail: { edited, prescriptionId: saved.id, note: input.note ?? null } });
   return { proposal: proposalView({ ...row, state: 'accepted', decided_by: ctx.viewer.userId, decided_by_name: ctx.viewer.name, decided_at: new Date(), result_prescription_id: saved.id }), prescription: saved };
 }

@@ -15,7 +15,7 @@
 //   ready for more.
 import { z } from 'zod';
 import { median } from '../analytics/median';
-import { roundTo } from '../rides/metrics';
+import { roundTo } from '../analytics/round';
 import { addDays, isoWeekday } from '../time/local-date';
 
 export const PROGRESSION_KINDS = ['minutes', 'resistance'] as const;

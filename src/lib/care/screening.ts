@@ -2,12 +2,12 @@
 // status per item of PRODUCT.md's "Safety" list, with a note. Every save is a
 // new version; earlier versions stay as they were.
 import { z } from 'zod';
-import { accessClient } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope, type Db } from '../data';
 import { badRequest } from '../http/errors';
 import { PRE_PROGRAM_SCREENING } from '../checks/safety-text';
 import { calendarDate, paragraph } from '../validation/fields';
-import { clientToday } from './today';
+import { localDate } from '../time/local-date';
 import type { ScreeningStatus } from './readiness';
 
 export const SCREENING_ITEM_IDS = PRE_PROGRAM_SCREENING.items.map((i) => i.id) as [string, ...string[]];
@@ -70,32 +70,32 @@ export function screeningView(row: { id: string; version: number; items: unknown
   };
 }
 
-async function versions(ctx: RequestContext, clientId: string) {
-  return ctx.knex('screening_versions as s').join('users as u', 'u.id', 's.assessed_by').where('s.client_id', clientId).orderBy('s.version', 'desc').select('s.*', 'u.name as assessed_by_name');
+async function versions(db: Db, clientId: string) {
+  return db('screening_versions as s').join('users as u', 'u.id', 's.assessed_by').where('s.client_id', clientId).orderBy('s.version', 'desc').select('s.*', 'u.name as assessed_by_name');
 }
 
 /** The current screening (the newest version) and every version, newest first. Staff only. */
 export async function readScreening(ctx: RequestContext, clientId: string) {
-  const client = await accessClient(ctx, clientId, 'manage', 'screening.view');
-  const rows = await versions(ctx, client.id);
+  const client = await scope(ctx).client(clientId, 'manage', 'screening.view');
+  const rows = await versions(client.db, client.id);
   return { current: rows[0] ? screeningView(rows[0]) : null, history: rows.map(screeningView), items: PRE_PROGRAM_SCREENING.items };
 }
 
 export async function saveScreening(ctx: RequestContext, clientId: string, input: ScreeningInput) {
-  const client = await accessClient(ctx, clientId, 'manage', 'screening.change');
-  if (input.assessedOn > clientToday(client.time_zone)) {
+  const client = await scope(ctx).client(clientId, 'manage', 'screening.change');
+  if (input.assessedOn > localDate(new Date(), client.row.time_zone)) {
     throw badRequest('Assessed on: the assessment cannot be dated in the future.', { fields: [{ path: 'assessedOn', message: 'Choose today or an earlier day.' }] });
   }
-  await ctx.knex.transaction(async (trx) => {
-    await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`screening:${client.id}`]);
-    const latest = await trx('screening_versions').where({ client_id: client.id }).max('version as v').first();
+  await client.transaction(async (tx) => {
+    await tx.lock(`screening:${client.id}`);
+    const latest = await tx.db('screening_versions').max('version as v').first();
     const items = input.items.map((i) => ({ id: i.id, status: i.status, note: i.note || null, lastScanOn: i.lastScanOn ?? null }));
-    const [created] = await trx('screening_versions')
-      .insert({ clinic_id: client.clinic_id, client_id: client.id, version: Number(latest?.v ?? 0) + 1, items: JSON.stringify(items), assessed_on: input.assessedOn, assessed_by: ctx.viewer.userId })
+    const [created] = await tx.db('screening_versions')
+      .insert({ version: Number(latest?.v ?? 0) + 1, items: JSON.stringify(items), assessed_on: input.assessedOn, assessed_by: ctx.viewer.userId })
       .returning(['id', 'version']);
     const concerns = items.filter((i) => i.status === 'concern').map((i) => i.id);
-    await auditAs(ctx, { action: 'screening.version_created', clinicId: client.clinic_id, clientId: client.id, recordType: 'screening', recordId: created.id, detail: { version: created.version, concerns } }, trx);
+    await tx.audit({ action: 'screening.version_created', recordType: 'screening', recordId: created.id, detail: { version: created.version, concerns } });
   });
-  const rows = await versions(ctx, client.id);
+  const rows = await versions(client.db, client.id);
   return { current: screeningView(rows[0]), history: rows.map(screeningView), items: PRE_PROGRAM_SCREENING.items };
 }

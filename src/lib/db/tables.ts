@@ -14,6 +14,8 @@ export interface ClinicRow {
   /** Null: Kinloop's defaults (src/lib/care/care-settings.ts). */
   clearance_review_months: number | null;
   ad_absolute_systolic: number | null;
+  /** BCP 47; null takes the default from the time zone (src/lib/time/locale.ts). */
+  locale: string | null;
   created_at: Date;
 }
 
@@ -355,5 +357,36 @@ export interface MonitoringEntryRow {
   started_at: Date;
   seconds: number;
   note: string | null;
+  created_at: Date;
+}
+
+export interface ClearanceRow {
+  id: string;
+  clinic_id: string;
+  client_id: string;
+  storage_key: string;
+  sha256: string;
+  byte_size: string | number;
+  content_type: string;
+  original_name: string;
+  cleared_on: string;
+  clinician: string;
+  review_on: string;
+  uploaded_by: string;
+  created_at: Date;
+}
+
+export interface ProgressionProposalRow {
+  id: string;
+  clinic_id: string;
+  client_id: string;
+  prescription_id: string;
+  iso_week: string;
+  proposed: Record<string, number>;
+  evidence: Record<string, unknown>;
+  state: 'open' | 'accepted' | 'dismissed' | 'superseded';
+  decided_by: string | null;
+  decided_at: Date | null;
+  result_prescription_id: string | null;
   created_at: Date;
 }

@@ -4,14 +4,13 @@
 // sessions can grow to 60 minutes in 5-minute steps; Dev is at risk and has no
 // plan on file; Hollis's clearance is due for review; Elsie awaits her
 // clearance; Wren, who started late, is not screened yet.
-import type { Knex } from 'knex';
+import type { Db } from '../data';
 import { createHash } from 'node:crypto';
 import { Readable } from 'node:stream';
 import { refreshProgression } from '../care/progression-service';
 import { PRE_PROGRAM_SCREENING } from '../checks/safety-text';
 import { putObjectStream } from '../storage/s3';
-import { addDays } from '../time/local-date';
-import { localDate } from '../time/iso-week';
+import { addDays, localDate } from '../time/local-date';
 import type { SeededIds } from './seed';
 
 /** A one-page PDF that says it is invented demo data. */
@@ -39,7 +38,7 @@ function demoPdf(text: string): Buffer {
 const CLEARED = ['jonah', 'dev', 'mairi', 'annika', 'kofi', 'rafael', 'noor', 'hollis'];
 const NOT_SCREENED = ['wren'];
 
-export async function seedDemoCare(knex: Knex, ids: SeededIds, now: Date): Promise<void> {
+export async function seedDemoCare(knex: Db, ids: SeededIds, now: Date): Promise<void> {
   const today = localDate(now, 'Europe/London');
   const therapist = ids.users.therapist;
   for (const [key, clientId] of Object.entries(ids.clients)) {

@@ -3,7 +3,7 @@
 // 18:00 in the client's time zone, when none has arrived that day) and the
 // rider's weekly summary (Monday from 08:00). The job runs every hour; dedupe
 // keys make each go out once per day or week even when a run is missed or repeated.
-import type { Knex } from 'knex';
+import type { Db, Query } from '../data/db';
 import { DateTime } from 'luxon';
 import { computeAdherence, prescriptionTimeline } from '../adherence';
 import { config } from '../config';
@@ -14,11 +14,16 @@ import { reminderDue } from '../rider/reminder';
 import { readGoalFor } from '../riders/goal-progress';
 import { riderPauses } from '../riders/sessions';
 import { loadHistories } from '../supervision/history';
-import { isoWeekOf, localDate } from '../time/iso-week';
+import { isoWeekOf } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { notificationEmail, type Recipient } from './compose';
 import { riderAndCarers, riderOnly, therapistsOf } from './recipients';
 import { FLAG_KIND_WORDS } from '../flags/words';
 import { clearanceReviewLines } from '../care/care-status';
+import { flagReason } from '../flags/reason';
+import { count, distance } from '../format/numbers';
+import { FALLBACK_LOCALE, formatDate, weekOf } from '../time/format';
+import { clinicLocale } from '../time/locale';
 
 export const DIGEST_HOUR = 7;
 export const REMINDER_HOUR = 18;
@@ -29,7 +34,7 @@ export const WEEKLY_HOUR = 8;
  * says how many of each it queued (not counting those queued before).
  */
 export async function sendScheduledEmails(
-  knex: Knex,
+  knex: Db,
   now = new Date(),
   only: { clinicIds?: string[] } = {},
 ): Promise<{ digests: number; reminders: number; weekly: number }> {
@@ -41,30 +46,35 @@ export async function sendScheduledEmails(
   return { digests: await digests(knex, clients, now), reminders: await reminders(knex, clients, now), weekly: await weeklySummaries(knex, clients, now) };
 }
 
-async function digests(knex: Knex, clients: ClientRow[], now: Date): Promise<number> {
+async function digests(knex: Db, clients: ClientRow[], now: Date): Promise<number> {
   const flags = await knex<FlagRow>('flags').whereIn('state', ['open', 'acknowledged']).orderBy('raised_at');
-  const clinicZones = new Map((await knex('clinics').select('id', 'time_zone')).map((c) => [c.id, c.time_zone as string]));
-  const byRecipient = new Map<string, { to: Recipient; date: string; lines: { fresh: boolean; text: string }[]; reviews: string[] }>();
+  const clinics = new Map((await knex('clinics').select('id', 'time_zone', 'locale')).map((c) => [c.id as string, c as { time_zone: string; locale: string | null }]));
+  const byRecipient = new Map<string, { to: Recipient; date: string; locale: string; lines: { fresh: boolean; text: string }[]; reviews: string[] }>();
   // Clearances falling due for review go into the same digest (issue 12).
-  const reviews = await clearanceReviewLines(knex, clients, now);
+  const reviews = await clearanceReviewLines(knex, clients, now, (c) => {
+    const clinic = clinics.get(c.clinic_id);
+    return clinic ? clinicLocale(clinic) : FALLBACK_LOCALE;
+  });
   for (const client of clients) {
     const own = flags.filter((f) => f.client_id === client.id);
     const review = reviews.get(client.id);
     if (!own.length && !review) continue;
-    const local = DateTime.fromJSDate(now).setZone(clinicZones.get(client.clinic_id) ?? 'UTC');
+    const clinic = clinics.get(client.clinic_id);
+    const local = DateTime.fromJSDate(now).setZone(clinic?.time_zone ?? 'UTC');
     if (local.hour < DIGEST_HOUR) continue;
+    const locale = clinic ? clinicLocale(clinic) : FALLBACK_LOCALE;
     for (const to of await therapistsOf(knex, client, 'daily_digest')) {
-      const entry = byRecipient.get(to.userId) ?? { to, date: local.toISODate()!, lines: [], reviews: [] };
+      const entry = byRecipient.get(to.userId) ?? { to, date: local.toISODate()!, locale, lines: [], reviews: [] };
       if (review) entry.reviews.push(review);
       for (const f of own) {
         const fresh = now.getTime() - f.raised_at.getTime() < 86_400_000;
-        entry.lines.push({ fresh, text: `${client.display_name} — ${FLAG_KIND_WORDS[f.kind]} (${f.severity}${f.state === 'acknowledged' ? ', acknowledged' : ''}): ${f.reason}` });
+        entry.lines.push({ fresh, text: `${client.display_name} — ${FLAG_KIND_WORDS[f.kind]} (${f.severity}${f.state === 'acknowledged' ? ', acknowledged' : ''}): ${flagReason(f, locale)}` });
       }
       byRecipient.set(to.userId, entry);
     }
   }
   let n = 0;
-  for (const { to, date, lines, reviews: due } of byRecipient.values()) {
+  for (const { to, date, locale, lines, reviews: due } of byRecipient.values()) {
     const fresh = lines.filter((l) => l.fresh).map((l) => `New: ${l.text}`);
     const open = lines.filter((l) => !l.fresh).map((l) => `Still open: ${l.text}`);
     const reviewText = due.length ? `, ${due.length} clearance review${due.length === 1 ? '' : 's'}` : '';
@@ -73,7 +83,7 @@ async function digests(knex: Knex, clients: ClientRow[], now: Date): Promise<num
       notificationEmail(to, 'daily_digest', {
         kind: 'daily_digest',
         subject: `Kinloop: ${fresh.length} new and ${open.length} open flag${fresh.length + open.length === 1 ? '' : 's'}${reviewText} today`,
-        paragraphs: [`Here are the flags for your clients on ${date}.`, ...fresh, ...open, ...due.map((r) => `Clearance: ${r}`)],
+        paragraphs: [`Here are the flags for your clients on ${formatDate(date, locale, 'dayLong')}.`, ...fresh, ...open, ...due.map((r) => `Clearance: ${r}`)],
         action: { label: 'Open triage', url: `${config().publicUrl}/triage` },
         dedupeKey: `digest:${to.userId}:${date}`,
         caution: true,
@@ -84,7 +94,7 @@ async function digests(knex: Knex, clients: ClientRow[], now: Date): Promise<num
   return n;
 }
 
-async function reminders(knex: Knex, clients: ClientRow[], now: Date): Promise<number> {
+async function reminders(knex: Db, clients: ClientRow[], now: Date): Promise<number> {
   let n = 0;
   const localOf = (c: ClientRow) => DateTime.fromJSDate(now).setZone(c.time_zone);
   for (const h of await loadHistories(knex, clients.filter((c) => localOf(c).hour >= REMINDER_HOUR))) {
@@ -96,7 +106,7 @@ async function reminders(knex: Knex, clients: ClientRow[], now: Date): Promise<n
     const last = h.sessions[h.sessions.length - 1];
     const next = nextSessionDue({ timeZone: client.time_zone, now, sessionsPerWeek: version.sessionsPerWeek, countedThisWeek: adherence.weeks[0].counted, lastSessionAt: last?.startedAt ?? null, pauses: riderPauses(h) });
     const sessionsToday = h.sessions.filter((s) => localDate(s.startedAt, client.time_zone) === today).length;
-    if (!reminderDue({ timeZone: client.time_zone, now, eveningHour: REMINDER_HOUR, nextDue: next.dueLocalDate, lastReminderSentAt: null, sessionsToday })) continue;
+    if (!reminderDue({ timeZone: client.time_zone, now, eveningHour: REMINDER_HOUR, nextDue: next.dueLocalDate, sessionsToday })) continue;
     for (const to of await riderAndCarers(knex, client, 'reminders')) {
       const self = to.userId === client.user_id;
       const id = await enqueueEmail(
@@ -118,7 +128,7 @@ async function reminders(knex: Knex, clients: ClientRow[], now: Date): Promise<n
   return n;
 }
 
-async function weeklySummaries(knex: Knex, clients: ClientRow[], now: Date): Promise<number> {
+async function weeklySummaries(knex: Db, clients: ClientRow[], now: Date): Promise<number> {
   let n = 0;
   const localOf = (c: ClientRow) => DateTime.fromJSDate(now).setZone(c.time_zone);
   const due = clients.filter((c) => c.user_id && localOf(c).weekday === 1 && localOf(c).hour >= WEEKLY_HOUR);
@@ -128,15 +138,17 @@ async function weeklySummaries(knex: Knex, clients: ClientRow[], now: Date): Pro
     const recipients = await riderOnly(knex, client, 'weekly_summary');
     if (!recipients.length) continue;
     const adherence = computeAdherence({ timeZone: client.time_zone, now: now.toISOString(), prescriptions: h.prescriptions, pauses: h.pauses, sessions: h.sessions, countThresholdPct: h.thresholds.countThresholdPct, weeks: 2 });
-    const week = adherence.weeks[0];
+    const thisWeek = adherence.weeks[0];
     const lastWeek = isoWeekOf(local.minus({ weeks: 1 }).toISODate()!, client.time_zone);
     const rides = h.sessions.filter((s) => {
       const d = localDate(s.startedAt, client.time_zone);
       return d >= lastWeek.monday && d <= lastWeek.sunday;
     });
-    const km = rides.reduce((sum, r) => sum + (r.row.distance_m ?? 0), 0) / 1000;
+    const metres = rides.reduce((sum, r) => sum + (r.row.distance_m ?? 0), 0);
     const minutes = Math.round(rides.reduce((sum, r) => sum + r.row.active_s, 0) / 60);
-    const goal = await goalLine(knex, client);
+    const locale = await localeOf(knex, client);
+    const week = weekOf(lastWeek.monday, locale);
+    const goal = await goalLine(knex, client, locale);
     for (const to of recipients) {
       const id = await enqueueEmail(
         knex,
@@ -144,9 +156,9 @@ async function weeklySummaries(knex: Knex, clients: ClientRow[], now: Date): Pro
           kind: 'weekly_summary',
           subject: `Your riding last week: ${rides.length} session${rides.length === 1 ? '' : 's'}`,
           paragraphs: [
-            week.paused
-              ? `Last week (${lastWeek.isoWeek}) your program was paused.`
-              : `Last week (${lastWeek.isoWeek}) you rode ${rides.length} time${rides.length === 1 ? '' : 's'}${week.prescribed ? ` of the ${week.prescribed} planned` : ''}: ${minutes} active minutes and ${km.toFixed(1)} km.`,
+            thisWeek.paused
+              ? `Last week (${week}) your program was paused.`
+              : `Last week (${week}) you did ${count(rides.length, 'session')}${thisWeek.prescribed ? ` of the ${thisWeek.prescribed} planned` : ''}: ${minutes} active minutes and ${distance(metres, locale)}.`,
             `Your streak: ${adherence.streakWeeks} week${adherence.streakWeeks === 1 ? '' : 's'}.`,
             ...(goal ? [goal] : []),
           ],
@@ -160,10 +172,15 @@ async function weeklySummaries(knex: Knex, clients: ClientRow[], now: Date): Pro
   return n;
 }
 
-async function goalLine(knex: Knex, client: ClientRow): Promise<string | null> {
+async function goalLine(knex: Db, client: ClientRow, locale: string): Promise<string | null> {
   const g = await readGoalFor(knex, client);
   if (!g) return null;
   return g.progress.finished
     ? `You have reached the end of ${g.route.name}. Well done!`
-    : `Distance goal, ${g.route.name}: ${(g.progress.travelledM / 1000).toFixed(1)} of ${(g.progress.totalM / 1000).toFixed(0)} km${g.progress.next ? `; next: ${g.progress.next.name} in ${(g.progress.next.remainingM / 1000).toFixed(1)} km` : ''}.`;
+    : `Distance goal, ${g.route.name}: ${distance(g.progress.travelledM, locale)} of ${distance(g.progress.totalM, locale)}${g.progress.next ? `; next: ${g.progress.next.name} in ${distance(g.progress.next.remainingM, locale)}` : ''}.`;
+}
+
+async function localeOf(knex: Db, client: ClientRow): Promise<string> {
+  const clinic = await knex('clinics').where({ id: client.clinic_id }).first('time_zone', 'locale');
+  return clinic ? clinicLocale(clinic) : FALLBACK_LOCALE;
 }

@@ -1,17 +1,17 @@
 import { z } from 'zod';
 import { prescriptionTimeline, sessionStatus } from '../adherence';
-import { localDate } from '../time/iso-week';
-import { median } from '../analytics/median';
-import { accessClient } from '../auth/access';
+import { localDate } from '../time/local-date';
+import { usualLevel } from '../flags/metric-shift';
 import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
 import { loadHistory, type ClientHistory } from './history';
 import { overviewOf } from './overview';
 
 export const adherenceQuerySchema = z.object({ weeks: z.coerce.number().int().min(1).max(104).default(12) });
 
 export async function clientAdherence(ctx: RequestContext, clientId: string, weeks: number) {
-  const client = await accessClient(ctx, clientId, 'read', 'adherence.view');
-  const { adherence } = overviewOf(await loadHistory(ctx.knex, client), new Date(), weeks);
+  const client = await scope(ctx).client(clientId, 'read', 'adherence.view');
+  const { adherence } = overviewOf(await loadHistory(client.db, client.row), new Date(), weeks);
   return {
     weeks: adherence.weeks.map((w) => ({ isoWeek: w.isoWeek, prescribed: w.prescribed, counted: w.counted, short: w.short, met: w.met, paused: w.paused })),
     streakWeeks: adherence.streakWeeks,
@@ -21,13 +21,14 @@ export async function clientAdherence(ctx: RequestContext, clientId: string, wee
 
 /**
  * Per-session points for the client page's charts: mean power with the usual
- * level it is judged against (the median of the counted sessions before it,
- * as the power_drop rule takes it) and the review band below it, duration
- * against the prescribed minutes, and current per watt.
+ * level the power_drop rule would judge against with that session the latest
+ * (usualLevel: the counted, unpaused sessions before the latest two) and the
+ * review band below it, duration against the prescribed minutes, and current
+ * per watt.
  */
 export async function clientTrends(ctx: RequestContext, clientId: string) {
-  const client = await accessClient(ctx, clientId, 'read', 'trends.view');
-  const h = await loadHistory(ctx.knex, client);
+  const client = await scope(ctx).client(clientId, 'read', 'trends.view');
+  const h = await loadHistory(client.db, client.row);
   const { overview } = overviewOf(h, new Date());
   return { sessions: trendPointsOf(h), powerTrendWPerWeek: overview.powerTrendWPerWeek, thresholds: h.thresholds };
 }
@@ -36,13 +37,14 @@ export async function clientTrends(ctx: RequestContext, clientId: string) {
 export function trendPointsOf(h: ClientHistory) {
   const t = h.thresholds;
   const timeline = prescriptionTimeline(h.prescriptions);
-  const countedPower: number[] = [];
+  const eligiblePower: number[] = [];
   return h.sessions.map((s) => {
-    const target = timeline.versionOn(localDate(s.startedAt, h.client.time_zone));
-    const window = countedPower.slice(-t.baselineSessions);
-    const baseline = window.length >= t.baselineMinSessions ? median(window) : null;
+    const day = localDate(s.startedAt, h.client.time_zone);
+    const target = timeline.versionOn(day);
     const counted = sessionStatus(s.durationS, target, t.countThresholdPct) === 'counted';
-    if (counted && s.meanPowerW !== null) countedPower.push(s.meanPowerW);
+    const paused = h.pauses.some((p) => p.from <= day && day <= p.to);
+    if (counted && !paused && s.meanPowerW !== null) eligiblePower.push(s.meanPowerW);
+    const baseline = usualLevel(eligiblePower, t);
     return {
       sessionId: s.id,
       startedAt: s.startedAt,

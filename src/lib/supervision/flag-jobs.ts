@@ -1,5 +1,5 @@
 import { config } from '../config';
-import { db } from '../db/knex';
+import { workerDb } from '../data';
 import { onRidesChanged } from '../ingest/ride-events';
 import { filesInFlight } from '../ingest/sweep';
 import { QUEUES, queue, sendJob, workQueue } from '../jobs/queue';
@@ -19,17 +19,17 @@ export async function registerFlagJobs(): Promise<void> {
   onRidesChanged((_knex, clientId) => scheduleFlagEvaluation(clientId));
 
   await workQueue<{ clientId: string }>(QUEUES.evaluateFlags, async ({ clientId }) => {
-    if (await filesInFlight(db(), clientId)) return scheduleFlagEvaluation(clientId);
-    await evaluateClientFlags(db(), clientId);
+    if (await filesInFlight(workerDb(), clientId)) return scheduleFlagEvaluation(clientId);
+    await evaluateClientFlags(workerDb(), clientId);
     // Progression is judged on the same occasions, after the flags (an open urgent flag holds it back).
-    await refreshProgression(db(), clientId);
+    await refreshProgression(workerDb(), clientId);
   });
 
   // Every hour, the clients for whom it has just turned midnight: a finished
   // day (no session for too long) and, on Mondays, a finished week.
   await (await queue()).schedule(QUEUES.sweepFlags, '5 * * * *');
   await workQueue(QUEUES.sweepFlags, async () => {
-    const clients = await db()('clients').whereNull('archived_at').select('id', 'time_zone');
+    const clients = await workerDb()('clients').whereNull('archived_at').select('id', 'time_zone');
     for (const c of clientsWithNewDay(clients, new Date())) await scheduleFlagEvaluation(c.id, 0);
   });
 }

@@ -1,4 +1,4 @@
-import type { Knex } from 'knex';
+import type { Db } from '../data/db';
 import type { Pause, PrescriptionVersion } from '../adherence/types';
 import type { ClientRow, PauseRow, PrescriptionRow, RideRow } from '../db/tables';
 import { flagThresholdsSchema, type FlagInput, type FlagSession, type FlagThresholds } from '../flags';
@@ -16,24 +16,24 @@ export function activePauses(rows: PauseRow[]): Pause[] {
   return rows.filter((p) => !p.cancelled_at).map((p) => ({ from: p.starts_on, to: p.ends_on }));
 }
 
-export async function loadHistory(knex: Knex, client: ClientRow): Promise<ClientHistory> {
-  return (await loadHistories(knex, [client]))[0];
+export async function loadHistory(db: Db, client: ClientRow): Promise<ClientHistory> {
+  return (await loadHistories(db, [client]))[0];
 }
 
 /**
  * The histories of several clients in four queries, whatever their number:
  * triage, the caseload and the hourly mail judge a whole clinic at once.
  */
-export async function loadHistories(knex: Knex, clients: ClientRow[]): Promise<ClientHistory[]> {
+export async function loadHistories(db: Db, clients: ClientRow[]): Promise<ClientHistory[]> {
   if (!clients.length) return [];
   const ids = clients.map((c) => c.id);
   // One after another, not in parallel: the flag judge passes a transaction,
   // which is one connection, and pg refuses overlapping queries on one
   // connection from its next major on.
-  const prescriptions = await knex<PrescriptionRow>('prescriptions').whereIn('client_id', ids).orderBy('version');
-  const pauses = await knex<PauseRow>('pauses').whereIn('client_id', ids).orderBy('starts_on');
-  const rides = await knex<RideRow>('rides').whereIn('client_id', ids).orderBy('started_at');
-  const clinics = await knex('clinics').whereIn('id', [...new Set(clients.map((c) => c.clinic_id))]).select('id', 'flag_thresholds');
+  const prescriptions = await db<PrescriptionRow>('prescriptions').whereIn('client_id', ids).orderBy('version');
+  const pauses = await db<PauseRow>('pauses').whereIn('client_id', ids).orderBy('starts_on');
+  const rides = await db<RideRow>('rides').whereIn('client_id', ids).orderBy('started_at');
+  const clinics = await db('clinics').whereIn('id', [...new Set(clients.map((c) => c.clinic_id))]).select('id', 'flag_thresholds');
   const thresholds = new Map(clinics.map((c) => [c.id as string, flagThresholdsSchema.parse(c.flag_thresholds ?? {})]));
   // Grouped once, so a clinic-wide read stays linear in its rows.
   const prescriptionsOf = byClient(prescriptions);

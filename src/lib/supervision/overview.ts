@@ -1,8 +1,9 @@
 // The per-client figures that triage and the caseload show: adherence, streak,
 // last session and power trend, computed from the same history the flags use.
-import type { Knex } from 'knex';
 import { computeAdherence } from '../adherence';
+import { roundTo } from '../analytics/round';
 import { powerTrendPerWeek } from '../analytics/trend';
+import type { Db } from '../data/db';
 import type { ClientRow } from '../db/tables';
 import type { ClientHistory } from './history';
 import { loadHistories } from './history';
@@ -34,9 +35,9 @@ export function overviewOf(h: ClientHistory, now: Date, weeks = 12) {
   return { overview, adherence };
 }
 
-const roundTrend = (v: number | null) => (v === null ? null : Math.round(v * 100) / 100);
+const roundTrend = (v: number | null) => (v === null ? null : roundTo(v, 2));
 
-export async function overviews(knex: Knex, clients: ClientRow[], now: Date): Promise<Map<string, ClientOverview>> {
-  const histories = await loadHistories(knex, clients);
+export async function overviews(db: Db, clients: ClientRow[], now: Date): Promise<Map<string, ClientOverview>> {
+  const histories = await loadHistories(db, clients);
   return new Map(histories.map((h) => [h.client.id, overviewOf(h, now).overview]));
 }

@@ -1,0 +1,5 @@
+// The data layer: `scope(ctx)` for requests, named system accessors for work
+// done on no one's behalf. See DEVELOPERS.md, "Data access".
+export { lock, type Db, type Query } from './db';
+export { scope, Scope, ClientGrant, ClinicGrant, OwnGrant, type ScopeAuditEntry } from './scope';
+export { authDb, closeDatabase, databaseAnswers, maintenanceDb, maintenanceKnex, workerDb } from './system';
