@@ -104,7 +104,7 @@ describe('the strict Content-Security-Policy in Chromium', () => {
     const page = await context.newPage();
     await signInThroughPage(page, 'therapist@kinloop.test');
     const { clientId } = await demoIds(context);
-    await visit(page, `/clients/${clientId}`);
+    await visit(page, `/clients/${clientId}/notes`);
     const note = `Checked the CSP at ${Date.now()}`;
     await page.getByLabel('New note').fill(note);
     await page.getByRole('button', { name: 'Add note' }).click();
