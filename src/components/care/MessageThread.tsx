@@ -1,7 +1,6 @@
 import { useRef, useState, type FormEvent } from 'react';
 import { api, ApiError, useApi } from '../api';
 import { formatDateTime } from '../../lib/time/format';
-import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { TextAreaField } from '../ui/Field';
 import { Loaded } from '../ui/Loading';
