@@ -3,7 +3,7 @@
 //
 // A backup folder holds:
 //   database.dump   pg_dump's custom format, taken in one snapshot
-//   files/<key>     every stored ride file the snapshot's uploads name
+//   files/<key>     every stored ride file the snapshot's uploads name, and every clearance document
 //   files.sha256    their SHA-256, in `sha256sum -c` form
 //   manifest.json   written last: the row count of every table in the same
 //                   snapshot and every file's key, size, type and SHA-256
@@ -104,7 +104,8 @@ async function backup(): Promise<void> {
     const snapshot = (await client.query('SELECT pg_export_snapshot() AS id')).rows[0].id as string;
     tables = await tableCounts(client);
     // Copies of the same bytes share one stored object: each object is copied once.
-    uploads = (await client.query('SELECT DISTINCT storage_key, sha256 FROM uploads ORDER BY storage_key')).rows;
+    // Ride files and clearance documents are the stored objects a record names.
+    uploads = (await client.query('SELECT DISTINCT storage_key, sha256 FROM (SELECT storage_key, sha256 FROM uploads UNION ALL SELECT storage_key, sha256 FROM clearances) f ORDER BY storage_key')).rows;
     console.log(`[backup] dumping the database (${Object.keys(tables).length} tables, ${Object.values(tables).reduce((a, b) => a + b, 0).toLocaleString('en')} rows)…`);
     await runTool('pg_dump', [...pgToolArgs, '--format=custom', `--snapshot=${snapshot}`, '--file', path.join(folder, 'database.dump')]);
     await client.query('COMMIT');

@@ -107,6 +107,10 @@ describe('a carer’s check with a blood pressure rise', () => {
       expect(text).toContain(words);
     }
     expect(text).toContain('150 mmHg');
+    // Jonah's own plan from the clinic, under the general steps, with his contacts as tel: links.
+    const plan = panel.getByTestId('ad-plan');
+    expect(await plan.textContent()).toContain('Pounding headache');
+    expect(await plan.getByRole('link', { name: /^Call Ruth Okafor/ }).getAttribute('href')).toBe('tel:+447700900123');
     await shots(page, 'safety-panel');
     const latest = page.getByTestId('recent-check').first();
     await latest.getByText('Urgent: Blood pressure rise').waitFor();

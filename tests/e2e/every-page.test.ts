@@ -26,7 +26,7 @@ const SIGNED_OUT = ['/sign-in', '/forgot-password', '/reset/not-a-real-token', '
 const PAGES: Record<string, { email: string; client?: string; pages: string[] }> = {
   client: {
     email: 'client@kinloop.test',
-    pages: ['/my-week', '/progress', '/goal', '/my-prescription', '/checks', '/upload', '/settings/notifications', '/sessions/{session}', '/no-page-here'],
+    pages: ['/my-week', '/progress', '/goal', '/my-prescription', '/checks', '/upload', '/messages', '/wallet-card', '/settings/notifications', '/sessions/{session}', '/no-page-here'],
   },
   carer: {
     email: 'carer@kinloop.test',
@@ -45,6 +45,7 @@ const PAGES: Record<string, { email: string; client?: string; pages: string[] }>
       '/clients/{client}/prescription',
       '/clients/{client}/pauses',
       '/clients/{client}/checks',
+      '/clients/{client}/care',
       '/clients/{client}/flags',
       '/clients/{client}/notes',
       '/clients/{client}/details',
@@ -53,6 +54,7 @@ const PAGES: Record<string, { email: string; client?: string; pages: string[] }>
       '/sessions/{session}',
       '/checks',
       '/upload',
+      '/messages?clientId={client}',
       '/settings/notifications',
     ],
   },

@@ -233,7 +233,7 @@ describe('the rider’s pages', () => {
     await page.keyboard.press('Space');
     await tabUntil(page, (f) => f.tag === 'button' && f.text === 'Save e-mail settings');
     await page.keyboard.press('Enter');
-    await page.getByRole('status').filter({ hasText: 'Saved. Kinloop will send: weekly summary.' }).waitFor();
+    await page.getByRole('status').filter({ hasText: 'Saved. Kinloop will send: weekly summary, new messages.' }).waitFor();
     await page.reload();
     await reminders.waitFor();
     await expect(reminders.isChecked()).resolves.toBe(false);

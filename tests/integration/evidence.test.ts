@@ -44,7 +44,7 @@ beforeAll(async () => {
   expect(created.status).toBe(201);
   clientId = created.body.id;
   expect((await therapist.json('PATCH', `/api/clients/${clientId}`, { volitionalControl: true, baselineSystolic: 118 })).status).toBe(200);
-  expect((await therapist.json('PUT', `/api/clients/${clientId}/prescription`, { sessionsPerWeek: 2, minutesPerSession: 10, effectiveFrom: start })).status).toBe(201);
+  expect((await therapist.json('PUT', `/api/clients/${clientId}/prescription`, { sessionsPerWeek: 2, minutesPerSession: 10, effectiveFrom: start, notClearedReason: 'Test client without clearance' })).status).toBe(201);
   const files = [];
   for (let weeksAgo = WEEKS_BACK; weeksAgo >= 1; weeksAgo--) {
     for (const day of [0, 3]) {

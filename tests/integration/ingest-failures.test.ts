@@ -73,6 +73,7 @@ describe('a worker killed mid-job', () => {
     // report the job done).
     const placement = await world.knex.client.acquireConnection();
     const jobs = await world.knex.client.acquireConnection();
+    // The same 64-bit key as the data layer's lock() (src/lib/data/db.ts).
     const lockPlacement = () => placement.query('SELECT pg_advisory_lock(hashtextextended($1, 0))', [`rides:${world.clientId}`]);
 
     // A waiting request for that advisory lock (its key's low 32 bits are pg_locks.objid).

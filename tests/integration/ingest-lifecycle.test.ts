@@ -35,7 +35,7 @@ describe('the same bytes sent again', () => {
   it('while the first copy is still waiting to be read: the copy waits for it and then takes its outcome', async () => {
     const carer = await world.as('carer');
     const content = rideCsv({ startedAt: '2026-03-10T09:00:00Z' });
-    // Hold the client's placement lock, as a long parse would, so the first copy stays queued.
+    // Hold the client's placement lock (the data layer's 64-bit key, src/lib/data/db.ts), as a long parse would, so the first copy stays queued.
     const holder = await world.knex.client.acquireConnection();
     try {
       await holder.query('SELECT pg_advisory_lock(hashtextextended($1, 0))', [`rides:${world.clientId}`]);

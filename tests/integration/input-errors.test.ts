@@ -24,8 +24,13 @@ import { createWorld, ROLES, type Role, type World } from '../support/world';
 import { MATRIX } from './authz/matrix';
 import { reportPdfBodySchema } from '../../src/lib/reports/report-data';
 import { energySettingsSchema } from '../../src/lib/reports/energy-settings';
-import { clinicLocaleSchema } from '../../src/lib/supervision/settings';
 import { monitoringInputSchema } from '../../src/lib/monitoring/monitoring';
+import { clinicLocaleSchema } from '../../src/lib/supervision/settings';
+import { screeningInputSchema } from '../../src/lib/care/screening';
+import { adPlanInputSchema } from '../../src/lib/care/ad-plan';
+import { careSettingsSchema } from '../../src/lib/care/care-settings';
+import { decisionSchema } from '../../src/lib/care/progression-service';
+import { messageInputSchema } from '../../src/lib/care/messages';
 
 let world: World;
 beforeAll(async () => {
@@ -117,6 +122,7 @@ const SCHEMAS: Record<string, ZodTypeAny> = {
   'POST /api/clients/[id]/notes': noteInputSchema,
   'POST /api/flags/[id]': flagActionSchema,
   'PUT /api/clinic/settings': flagThresholdsSchema,
+  'PATCH /api/clinic/settings': clinicLocaleSchema,
   'PUT /api/clients/[id]/goal': goalInputSchema,
   'POST /api/clients/[id]/checks': checkInputSchema,
   'PUT /api/me/notifications': preferencesInputSchema,
@@ -127,7 +133,11 @@ const SCHEMAS: Record<string, ZodTypeAny> = {
   'POST /api/clients/[id]/report.pdf': reportPdfBodySchema,
   'POST /api/clients/[id]/monitoring': monitoringInputSchema,
   'PUT /api/clinic/energy': energySettingsSchema,
-  'PATCH /api/clinic/settings': clinicLocaleSchema,
+  'PUT /api/clients/[id]/screening': screeningInputSchema,
+  'PUT /api/clients/[id]/ad-plan': adPlanInputSchema,
+  'PUT /api/clinic/care': careSettingsSchema,
+  'POST /api/progressions/[id]': decisionSchema,
+  'POST /api/clients/[id]/messages': messageInputSchema,
 };
 
 /** The field paths of a zod schema: nested objects give dotted paths, records a `*` key, arrays of objects their first element. */
@@ -207,7 +217,7 @@ describe('fuzz: awkward values in every field, query parameter and path paramete
       .filter(([, e]) => !e.freshSession)
       .map(([key]) => key);
     // Routes whose body the fuzz leaves to its own tests: multipart uploads (ingest tests), and those without a body.
-    const without = ['POST /api/uploads', 'POST /api/uploads/[id]/reprocess', 'POST /api/invitations/[id]/revoke', 'POST /api/clients/[id]/pauses/[pauseId]/end', 'DELETE /api/import-profiles/[id]', 'POST /api/auth/sign-in'];
+    const without = ['POST /api/uploads', 'POST /api/clients/[id]/clearances', 'POST /api/uploads/[id]/reprocess', 'POST /api/invitations/[id]/revoke', 'POST /api/clients/[id]/pauses/[pauseId]/end', 'DELETE /api/import-profiles/[id]', 'POST /api/auth/sign-in'];
     expect(withBody.filter((k) => !(k in SCHEMAS) && !without.includes(k))).toEqual([]);
   });
 

@@ -26,7 +26,7 @@ const thisMonday = () => DateTime.now().setZone(LONDON).startOf('week');
 async function worldWithProgram(label: string): Promise<World> {
   const world = await createWorld(label);
   const therapist = await world.as('therapist');
-  const rx = await therapist.json('PUT', `/api/clients/${world.clientId}/prescription`, { sessionsPerWeek: 3, minutesPerSession: 30, effectiveFrom: thisMonday().minus({ weeks: 6 }).toISODate() });
+  const rx = await therapist.json('PUT', `/api/clients/${world.clientId}/prescription`, { sessionsPerWeek: 3, minutesPerSession: 30, effectiveFrom: thisMonday().minus({ weeks: 6 }).toISODate(), notClearedReason: 'Test client without clearance' });
   expect(rx.status).toBe(201);
   return world;
 }

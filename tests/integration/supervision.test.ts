@@ -195,11 +195,11 @@ describe('prescriptions and pauses', () => {
     const id = await newClient(world, 2);
     const therapist = await world.as('therapist');
     const current = mondayOf(2).toISODate();
-    const earlier = await therapist.json('PUT', `/api/clients/${id}/prescription`, { sessionsPerWeek: 2, minutesPerSession: 40, effectiveFrom: mondayOf(3).toISODate() });
+    const earlier = await therapist.json('PUT', `/api/clients/${id}/prescription`, { sessionsPerWeek: 2, minutesPerSession: 40, effectiveFrom: mondayOf(3).toISODate(), notClearedReason: 'Screening booked; program goes on meanwhile' });
     expect(earlier.status).toBe(400);
     expect(earlier.body.error.message).toBe(`Effective date: the new version cannot start before the current one (${current}).`);
     expect(earlier.body.error.fields).toEqual([{ path: 'effectiveFrom', message: `Choose ${current} or later.` }]);
-    const sameDay = await therapist.json('PUT', `/api/clients/${id}/prescription`, { sessionsPerWeek: 2, minutesPerSession: 40, effectiveFrom: current });
+    const sameDay = await therapist.json('PUT', `/api/clients/${id}/prescription`, { sessionsPerWeek: 2, minutesPerSession: 40, effectiveFrom: current, notClearedReason: 'Screening booked; program goes on meanwhile' });
     expect(sameDay.status).toBe(201);
     const read = (await therapist.json('GET', `/api/clients/${id}/prescription`)).body;
     expect(read.history.map((v: { version: number; sessionsPerWeek: number }) => [v.version, v.sessionsPerWeek])).toEqual([[2, 2], [1, 3]]);

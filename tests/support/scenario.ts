@@ -32,7 +32,7 @@ export async function newClient(world: World, weeksOfProgram = 10) {
   const created = await therapist.json('POST', '/api/clients', { name: `Scenario ${world.tag}-${Math.random().toString(36).slice(2, 7)}`, timezone: ZONE, diagnosis: 'sci', injuryLevel: 'T8' });
   if (created.status !== 201) throw new Error(`client not created: ${JSON.stringify(created.body)}`);
   const id: string = created.body.id;
-  const rx = await therapist.json('PUT', `/api/clients/${id}/prescription`, { sessionsPerWeek: 3, minutesPerSession: 30, effectiveFrom: mondayOf(weeksOfProgram).toISODate() });
+  const rx = await therapist.json('PUT', `/api/clients/${id}/prescription`, { sessionsPerWeek: 3, minutesPerSession: 30, effectiveFrom: mondayOf(weeksOfProgram).toISODate(), notClearedReason: 'Scenario client without clearance' });
   if (rx.status !== 201) throw new Error(`prescription not saved: ${JSON.stringify(rx.body)}`);
   return id;
 }

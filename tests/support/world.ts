@@ -94,6 +94,8 @@ export async function createWorld(label = 'w'): Promise<World> {
     { carer_user_id: carer.id, client_id: client.id, relationship: 'partner' },
     { carer_user_id: secondCarer.id, client_id: otherClient.id, relationship: 'sister' },
   ]);
+  const secondMessage = `Message to Oona ${tag}`;
+  await knex('messages').insert({ clinic_id: clinic.id, client_id: otherClient.id, author_id: therapist.id, body: secondMessage });
   const staffNote = `Staff-only note on Cal ${tag}`;
   await knex('client_notes').insert({ client_id: client.id, author_id: therapist.id, body: staffNote });
   const b = await otherClinicRecords(knex, tag, other.id, otherTherapist.id);
@@ -115,6 +117,7 @@ export async function createWorld(label = 'w'): Promise<World> {
     ...person(secondCarer, ['therapist', 'admin']),
     { text: secondCarer.name, what: 'second carer name', seenBy: ['therapist', 'admin'] },
     { text: staffNote, what: 'staff note', seenBy: ['therapist', 'admin'] },
+    { text: secondMessage, what: 'second client message', seenBy: ['therapist', 'admin'] },
     // Clinic B, never for clinic A.
     { text: other.id, what: 'clinic B id', seenBy: CLINIC_B },
     { text: `Clinic B ${tag}`, what: 'clinic B name', seenBy: CLINIC_B },
@@ -185,6 +188,21 @@ async function otherClinicRecords(knex: Knex, tag: string, clinicId: string, the
     .returning('id');
   const [pause] = await knex('pauses').insert({ client_id: client.id, starts_on: '2030-02-01', ends_on: '2030-02-05', reason: mark('Pause'), created_by: therapistId }).returning('id');
   await knex('prescriptions').insert({ client_id: client.id, version: 1, effective_from: '2026-01-05', sessions_per_week: 3, minutes_per_session: 30, notes: mark('Prescription'), created_by: therapistId });
+  // Care records (issue 12): a screening, a clearance, the rider's plan, a progression proposal and a message.
+  const [screening] = await knex('screening_versions')
+    .insert({ clinic_id: clinicId, client_id: client.id, version: 1, items: JSON.stringify([{ id: 'epilepsy', status: 'concern', note: mark('Screening note') }]), assessed_on: '2026-01-02', assessed_by: therapistId })
+    .returning('id');
+  const [clearance] = await knex('clearances')
+    .insert({ clinic_id: clinicId, client_id: client.id, storage_key: `world/${randomUUID()}`, sha256: randomUUID(), byte_size: 10, content_type: 'application/pdf', original_name: `${mark('clearance')}.pdf`, cleared_on: '2026-01-03', clinician: mark('Dr'), review_on: '2027-01-03', uploaded_by: therapistId })
+    .returning('id');
+  const [plan] = await knex('ad_plans')
+    .insert({ clinic_id: clinicId, client_id: client.id, version: 1, signs: mark('Plan signs'), first_steps: mark('Plan steps'), who_to_call: mark('Plan call'), contacts: JSON.stringify([{ name: mark('Contact'), relationship: null, phone: '+33 1 23 45 67 89' }]), created_by: therapistId })
+    .returning('id');
+  const [rx] = await knex('prescriptions').where({ client_id: client.id }).select('id');
+  const [proposal] = await knex('progression_proposals')
+    .insert({ clinic_id: clinicId, client_id: client.id, prescription_id: rx.id, iso_week: '2026-W02', proposed: JSON.stringify({ minutesPerSession: 35 }), evidence: JSON.stringify({ note: mark('Evidence') }) })
+    .returning('id');
+  const [message] = await knex('messages').insert({ clinic_id: clinicId, client_id: client.id, author_id: therapistId, body: mark('Message') }).returning('id');
   const [device] = await knex('devices').insert({ clinic_id: clinicId, serial: mark('SN') }).returning('id');
   const [profile] = await knex('import_profiles').insert({ clinic_id: clinicId, name: mark('Profile'), mapping: JSON.stringify({ name: 'p', columns: { Zeit: { field: 'time' } } }) }).returning('id');
   const [invitation] = await knex('invitations')
@@ -202,6 +220,11 @@ async function otherClinicRecords(knex: Knex, tag: string, clinicId: string, the
     ['clinic B profile id', profile.id],
     ['clinic B invitation id', invitation.id],
     ['clinic B invitee', `invitee.${tag}@elsewhere.test`],
+    ['clinic B screening id', screening.id],
+    ['clinic B clearance id', clearance.id],
+    ['clinic B plan id', plan.id],
+    ['clinic B proposal id', proposal.id],
+    ['clinic B message id', message.id],
   ];
   return {
     clientId: client.id as string,

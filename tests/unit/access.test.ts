@@ -31,7 +31,7 @@ describe('access rules', () => {
     expect(homePath({ ...base, clientId: 'c1' })).toBe('/my-week');
     expect(homePath(base)).toBe('/no-access');
     const hrefs = navFor(both, { mailbox: false }).flatMap((s) => s.links.map((l) => l.href));
-    expect(hrefs).toEqual(['/triage', '/overview', '/clients', '/reports', '/monitoring', '/upload', '/carer', '/checks', '/my-prescription']);
+    expect(hrefs).toEqual(['/triage', '/overview', '/clients', '/reports', '/monitoring', '/upload', '/carer', '/checks', '/my-prescription', '/messages']);
     expect(pageAllowed(both, 'admin')).toBe(false);
     expect(pageAllowed({ ...base, clientId: 'c1' }, 'client')).toBe(true);
   });

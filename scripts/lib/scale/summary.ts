@@ -92,6 +92,8 @@ export function modelSummary(spec: RideSpec, m: SummaryModel, random: Random): R
     channels,
     pulseWidthUs: spec.pulseWidthUs,
     frequencyHz: spec.frequencyHz,
+    // The model has no shape within a ride, so it claims no endurance ratio.
+    enduranceRatioPct: null,
     samples: Math.round((passiveS + activeS + cooldownS) * spec.hz),
     warnings: [],
   };

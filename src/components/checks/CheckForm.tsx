@@ -125,7 +125,7 @@ function CheckEntry({ client, self, locale, onSaved }: { client: CheckClient; se
     setErrors({});
     try {
       const saved = await api<SavedCheck>('POST', `/api/clients/${client.id}/checks`, body);
-      setOutcome({ clientName: client.name, self, evaluation: saved.evaluation });
+      setOutcome({ clientName: client.name, self, evaluation: saved.evaluation, adPlan: saved.adPlan ?? null });
       setDraft(emptyDraft());
       setNoSigns(false);
       setSkinNormal(false);

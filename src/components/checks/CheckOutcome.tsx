@@ -1,5 +1,6 @@
 import { forwardRef } from 'react';
-import { AD_SAFETY_PANEL } from '../../lib/checks/safety-text';
+import { AD_PLAN_TEXT, AD_SAFETY_PANEL } from '../../lib/checks/safety-text';
+import { AdPlanCard, type AdPlanData } from '../care/AdPlanCard';
 import { Alert } from '../ui/Alert';
 import type { EvaluationView } from './types';
 
@@ -7,6 +8,8 @@ export interface Outcome {
   clientName: string;
   self: boolean;
   evaluation: EvaluationView;
+  /** The rider's own plan, shown under the general steps; null when none is on file. */
+  adPlan: AdPlanData | null;
 }
 
 /**
@@ -21,7 +24,7 @@ export const CheckOutcome = forwardRef<HTMLHeadingElement, { outcome: Outcome }>
   return (
     <div className="space-y-4" data-testid="check-outcome">
       {evaluation.showSafetyPanel ? (
-        <SafetyPanel ref={ref} reasons={urgent.map((c) => c.reason)} alerted={urgent.length > 0} />
+        <SafetyPanel ref={ref} reasons={urgent.map((c) => c.reason)} alerted={urgent.length > 0} plan={outcome.adPlan} self={outcome.self} />
       ) : (
         <div className="rounded-lg border-l-4 border-moss bg-moss-tint px-4 py-3" role="status">
           <h2 ref={ref} tabIndex={-1} className="text-lg">
@@ -53,7 +56,7 @@ export const CheckOutcome = forwardRef<HTMLHeadingElement, { outcome: Outcome }>
   );
 });
 
-const SafetyPanel = forwardRef<HTMLHeadingElement, { reasons: string[]; alerted: boolean }>(function SafetyPanel({ reasons, alerted }, ref) {
+const SafetyPanel = forwardRef<HTMLHeadingElement, { reasons: string[]; alerted: boolean; plan: AdPlanData | null; self: boolean }>(function SafetyPanel({ reasons, alerted, plan, self }, ref) {
   return (
     <section role="alert" aria-labelledby="safety-panel-h" className="space-y-4 rounded-xl border-4 border-brick bg-brick-tint p-5" data-testid="safety-panel">
       <div className="flex items-start gap-3">
@@ -72,6 +75,14 @@ const SafetyPanel = forwardRef<HTMLHeadingElement, { reasons: string[]; alerted:
           <li key={step}>{step}</li>
         ))}
       </ol>
+      {plan ? (
+        <AdPlanCard plan={plan} headingLevel={3} id="safety-ad-plan" />
+      ) : (
+        <p className="rounded-lg border-2 border-slate/50 bg-surface p-4" data-testid="no-ad-plan">
+          <span className="font-semibold">{AD_PLAN_TEXT.noPlan}. </span>
+          {self ? AD_PLAN_TEXT.noPlanForRider : 'The clinic has not written this rider’s own plan into Kinloop yet. Follow the general steps above and the plan the rider keeps.'}
+        </p>
+      )}
       <p>{AD_SAFETY_PANEL.closing}</p>
       <div className="space-y-2 rounded-lg border-2 border-brick/40 bg-surface p-4">
         {alerted ? (

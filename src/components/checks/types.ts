@@ -17,6 +17,7 @@ export interface EvaluationView {
 export interface SavedCheck {
   check: { id: string; takenAt: string };
   evaluation: EvaluationView;
+  adPlan?: import('../care/AdPlanCard').AdPlanData | null;
 }
 
 export interface RecentCheck {

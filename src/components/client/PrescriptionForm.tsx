@@ -81,6 +81,15 @@ export function PrescriptionForm({
   const [effectiveFrom, setEffectiveFrom] = useState(earliest);
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<ApiError | null>(null);
+  const [progressionKind, setProgressionKind] = useState<string>(latest?.progression?.kind ?? 'none');
+  const [progressionStep, setProgressionStep] = useState(text(latest?.progression?.step ?? 5));
+  const [progressionUpTo, setProgressionUpTo] = useState(text(latest?.progression?.upTo ?? 60));
+  // Folded while unchanged, like the channel limits: one stop on the keyboard path.
+  const [progressionOpen, setProgressionOpen] = useState(!latest);
+  const progressionField = useRef<HTMLDivElement>(null);
+  // Set when the server answers that the client is not cleared: the save is asked for again with a reason.
+  const [notCleared, setNotCleared] = useState<string | null>(null);
+  const [reason, setReason] = useState('');
   const heading = useRef<HTMLHeadingElement>(null);
   const summary = useRef<HTMLDivElement>(null);
   const firstChannelField = useRef<HTMLDivElement>(null);
@@ -116,6 +125,8 @@ export function PrescriptionForm({
       ),
       ...(chosenNotes.trim() ? { notes: chosenNotes } : {}),
       effectiveFrom: startsToday ? today : effectiveFrom,
+      progression: progressionKind === 'none' ? null : { kind: progressionKind, step: numberOf(progressionStep, true), upTo: numberOf(progressionUpTo, true) },
+      ...(notCleared ? { notClearedReason: reason } : {}),
     };
     try {
       const created = await api<PrescriptionVersionView>('PUT', `/api/clients/${clientId}/prescription`, body);
@@ -123,7 +134,13 @@ export function PrescriptionForm({
       onSaved(created);
     } catch (err) {
       const apiError = err as ApiError;
+      if (apiError.body.code === 'not_cleared' && !notCleared) {
+        setNotCleared(apiError.message);
+        setBusy(false);
+        return;
+      }
       if (apiError.body.fields?.some((f) => f.path.startsWith('channels.'))) setChannelsOpen(true);
+      if (apiError.body.fields?.some((f) => f.path.startsWith('progression.'))) setProgressionOpen(true);
       if (apiError.field('effectiveFrom')) setStartsToday(false);
       setError(apiError);
       setBusy(false);
@@ -230,6 +247,47 @@ export function PrescriptionForm({
         )}
       </fieldset>
 
+      <fieldset className="space-y-3">
+        <legend className="mb-1 font-semibold">Progression</legend>
+        <p className="text-sm text-ink-soft">
+          When every prescribed session of a finished week counted, no urgent flag is open and current per watt has not risen beyond the clinic’s threshold, Kinloop proposes the next step for you to accept. Riders typically build from about 20 to 60 minutes over the first month.
+        </p>
+        {!progressionOpen ? (
+          <div className="space-y-2">
+            <p>{progressionWords(latest?.progression ?? null)}</p>
+            <Button
+              variant="secondary"
+              onClick={() => {
+                setProgressionOpen(true);
+                requestAnimationFrame(() => progressionField.current?.querySelector<HTMLElement>('select')?.focus());
+              }}
+            >
+              Change the progression
+            </Button>
+          </div>
+        ) : (
+          <div ref={progressionField} className="grid gap-4 sm:grid-cols-3">
+            <SelectField
+              label="Step up"
+              {...idOf('progression.kind')}
+              value={progressionKind}
+              onChange={(e) => setProgressionKind(e.target.value)}
+              options={[
+                { value: 'none', label: 'No progression' },
+                { value: 'minutes', label: 'Minutes per session' },
+                { value: 'resistance', label: 'Resistance' },
+              ]}
+            />
+            {progressionKind !== 'none' && (
+              <>
+                <TextField label={progressionKind === 'minutes' ? 'Step (minutes)' : 'Step (levels)'} {...number} {...idOf('progression.step')} value={progressionStep} onChange={(e) => setProgressionStep(e.target.value)} error={error?.field('progression.step')} />
+                <TextField label="Up to" {...number} {...idOf('progression.upTo')} value={progressionUpTo} onChange={(e) => setProgressionUpTo(e.target.value)} error={error?.field('progression.upTo')} />
+              </>
+            )}
+          </div>
+        )}
+      </fieldset>
+
       <div className="space-y-3">
         {previousNotes && (
           <div className="rounded-lg border border-line bg-paper p-3">
@@ -272,9 +330,15 @@ export function PrescriptionForm({
           </div>
         )}
       </fieldset>
+      {notCleared && (
+        <div className="space-y-3 rounded-lg border-2 border-ochre bg-ochre-tint p-4" role="alert" data-testid="not-cleared">
+          <p className="font-semibold">{notCleared}</p>
+          <TextField label="Reason for saving without a current clearance" {...idOf('notClearedReason')} value={reason} onChange={(e) => setReason(e.target.value)} error={error?.field('notClearedReason')} />
+        </div>
+      )}
       <div className="flex flex-wrap gap-3">
         <Button type="submit" busy={busy}>
-          Save as version {(latest?.version ?? 0) + 1}
+          {notCleared ? `Confirm and save version ${(latest?.version ?? 0) + 1}` : `Save as version ${(latest?.version ?? 0) + 1}`}
         </Button>
         <Button variant="quiet" onClick={onCancel}>
           Cancel
@@ -282,6 +346,11 @@ export function PrescriptionForm({
       </div>
     </form>
   );
+}
+
+function progressionWords(plan: PrescriptionVersionView['progression'] | null): string {
+  if (!plan) return 'No progression: Kinloop proposes no next step.';
+  return plan.kind === 'minutes' ? `${plan.step} more minutes per session at a time, up to ${plan.upTo} minutes.` : `${plan.step} more resistance ${plan.step === 1 ? 'level' : 'levels'} at a time, up to ${plan.upTo}.`;
 }
 
 function Choice({ name, checked, disabled, onChange, children }: { name: string; checked: boolean; disabled?: boolean; onChange: () => void; children: ReactNode }) {

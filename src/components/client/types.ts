@@ -15,6 +15,8 @@ export interface PrescriptionVersionView {
   resistance: number | null;
   channels: Record<string, ChannelLimits>;
   notes: string | null;
+  progression?: { kind: 'minutes' | 'resistance'; step: number; upTo: number } | null;
+  notClearedReason?: string | null;
   createdBy: { userId: string; name: string | null };
   createdAt: string;
 }
@@ -52,6 +54,7 @@ export interface TrendPoint {
   targetS: number | null;
   counted: boolean;
   currentPerWattMaPerW: number | null;
+  enduranceRatioPct: number | null;
 }
 
 export interface TrendsData {

@@ -1,7 +1,7 @@
 import { useApi } from '../api';
 import { distance, minutes, watts } from '../../lib/format/numbers';
 import { Loaded } from '../ui/Loading';
-import { formatDateTime, formatInstantDate } from '../../lib/time/format';
+import { formatDate, formatDateTime, formatInstantDate } from '../../lib/time/format';
 import { localDate } from '../../lib/time/local-date';
 import type { WeekData } from './types';
 import { WeekDots } from './WeekDots';
@@ -65,6 +65,22 @@ function WeekView({ week, locale }: { week: WeekData; locale: string }) {
             <p className="mt-2 text-2xl font-semibold">{due.headline}</p>
             {due.detail && <p className="mt-1 text-lg">{due.detail}</p>}
           </section>
+          {week.target && (
+            <section aria-labelledby="target-h" className="card" data-testid="week-target">
+              <h2 id="target-h" className="text-base font-semibold tracking-wide text-ink-soft uppercase">
+                Each session
+              </h2>
+              <p className="mt-2 text-2xl font-semibold">{week.target.minutesPerSession} minutes</p>
+              {week.target.resistance !== null && <p className="mt-1">Resistance {week.target.resistance}</p>}
+              {week.nextTarget && (
+                <p className="mt-2 rounded-lg border-l-4 border-moss bg-moss-tint px-3 py-2 text-lg" data-testid="next-target">
+                  From {formatDate(week.nextTarget.from, locale, 'weekdayDayMonth')}: {week.nextTarget.minutesPerSession} minutes each session
+                  {week.nextTarget.resistance !== null && week.nextTarget.resistance !== week.target.resistance ? `, resistance ${week.nextTarget.resistance}` : ''}
+                  {week.nextTarget.sessionsPerWeek !== week.target.sessionsPerWeek ? `, ${week.nextTarget.sessionsPerWeek} sessions a week` : ''}. Your clinic set this new target.
+                </p>
+              )}
+            </section>
+          )}
           <section aria-labelledby="streak-h" className="card">
             <h2 id="streak-h" className="text-base font-semibold tracking-wide text-ink-soft uppercase">
               Streak

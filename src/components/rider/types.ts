@@ -22,8 +22,18 @@ export interface WeekSession {
 
 export type NextDueReason = 'no_target' | 'paused' | 'week_met' | 'due_today' | 'due';
 
+export interface WeekTarget {
+  from: string;
+  sessionsPerWeek: number;
+  minutesPerSession: number;
+  resistance: number | null;
+}
+
 export interface WeekData {
   clientId: string;
+  /** The prescription in effect today, and the next version when one is coming (an accepted step, say). */
+  target: WeekTarget | null;
+  nextTarget: WeekTarget | null;
   name: string;
   timeZone: string;
   isoWeek: string;

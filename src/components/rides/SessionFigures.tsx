@@ -37,6 +37,11 @@ export function SessionFigures({ summary: s, startedLabel, timeZone, startedAtSo
       <Figure term="Distance" value={distance(s.distanceM)} />
       <Figure term="Mean cadence" value={withUnit(s.meanCadenceRpm, 0, 'rpm')} note="while active" />
       <Figure term="Current per watt" value={withUnit(s.currentPerWattMaPerW, 2, 'mA/W')} note="all channels’ mean current ÷ mean power" />
+      <Figure
+        term="Power held to the end"
+        value={s.enduranceRatioPct === null || s.enduranceRatioPct === undefined ? 'Needs 12 active minutes' : withUnit(s.enduranceRatioPct, 0, '%')}
+        note="mean power of the last 5 active minutes as a share of the first 5"
+      />
       <Figure term="Pulse width" value={withUnit(s.pulseWidthUs, 0, 'µs')} />
       <Figure term="Frequency" value={withUnit(s.frequencyHz, 0, 'Hz')} />
     </dl>

@@ -4,7 +4,7 @@ import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { Loaded } from '../ui/Loading';
 
-type Kind = 'reminders' | 'weeklySummary' | 'dailyDigest' | 'urgentAlerts';
+type Kind = 'reminders' | 'weeklySummary' | 'dailyDigest' | 'urgentAlerts' | 'messages';
 type Settings = Record<Kind, boolean>;
 interface SettingsData extends Settings {
   applicable: Settings;
@@ -15,6 +15,7 @@ const KINDS: { kind: Kind; label: string; help: string }[] = [
   { kind: 'weeklySummary', label: 'Weekly summary', help: 'Each Monday morning: the past week’s rides against the prescription.' },
   { kind: 'dailyDigest', label: 'Therapists’ daily digest', help: 'Each morning: the clients with open flags.' },
   { kind: 'urgentAlerts', label: 'Immediate alerts for urgent flags', help: 'An e-mail as soon as a check or a session raises an urgent flag. E-mail can be delayed; it is not an alarm.' },
+  { kind: 'messages', label: 'New messages', help: 'An e-mail saying a message is waiting in Kinloop. It never contains the message itself.' },
 ];
 
 /** Which e-mails Kinloop sends this person; only the kinds that fit their roles are offered. */
@@ -29,7 +30,7 @@ export default function NotificationSettings({ email }: { email: string }) {
 
 function SettingsForm({ data, email }: { data: SettingsData; email: string }) {
   const offered = KINDS.filter((k) => data.applicable[k.kind]);
-  const [values, setValues] = useState<Settings>({ reminders: data.reminders, weeklySummary: data.weeklySummary, dailyDigest: data.dailyDigest, urgentAlerts: data.urgentAlerts });
+  const [values, setValues] = useState<Settings>({ reminders: data.reminders, weeklySummary: data.weeklySummary, dailyDigest: data.dailyDigest, urgentAlerts: data.urgentAlerts, messages: data.messages });
   const [busy, setBusy] = useState(false);
   const [status, setStatus] = useState('');
   const [error, setError] = useState<string | null>(null);
@@ -41,7 +42,7 @@ function SettingsForm({ data, email }: { data: SettingsData; email: string }) {
     setError(null);
     try {
       const saved = await api<SettingsData>('PUT', '/api/me/notifications', values);
-      setValues({ reminders: saved.reminders, weeklySummary: saved.weeklySummary, dailyDigest: saved.dailyDigest, urgentAlerts: saved.urgentAlerts });
+      setValues({ reminders: saved.reminders, weeklySummary: saved.weeklySummary, dailyDigest: saved.dailyDigest, urgentAlerts: saved.urgentAlerts, messages: saved.messages });
       const on = KINDS.filter((k) => saved.applicable[k.kind] && saved[k.kind]).map((k) => k.label.toLowerCase());
       setStatus(on.length ? `Saved. Kinloop will send: ${on.join(', ')}.` : 'Saved. Kinloop will not send you these e-mails.');
     } catch (err) {

@@ -10,6 +10,7 @@ import { useId, useMemo, type ReactNode } from 'react';
 import { Adherence, LastSession, PowerTrend, Streak } from './ClientFigures';
 import { compareClientsByUrgency } from '../../lib/flags/urgency';
 import type { ClientRow } from './types';
+import { CareBadges } from '../care/CareBadges';
 
 const col = createColumnHelper<ClientRow>();
 
@@ -29,9 +30,12 @@ const COLUMNS = [
     header: 'Client',
     sortingFn: (a, b) => a.original.clientName.localeCompare(b.original.clientName),
     cell: (c) => (
-      <a href={`/clients/${c.row.original.clientId}`} className="inline-flex min-h-12 items-center text-lg font-semibold lg:text-base">
-        {c.getValue()}
-      </a>
+      <>
+        <a href={`/clients/${c.row.original.clientId}`} className="inline-flex min-h-12 items-center text-lg font-semibold lg:text-base">
+          {c.getValue()}
+        </a>
+        {c.row.original.care && <CareBadges care={c.row.original.care} />}
+      </>
     ),
   }),
   col.accessor('flags', { id: 'flags', header: 'Open flags', sortingFn: (a, b) => compareClientsByUrgency(a.original, b.original), sortDescFirst: false, cell: (c) => meta(c).renderFlags(c.row.original) }),

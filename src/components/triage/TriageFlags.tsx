@@ -30,9 +30,14 @@ export function TriageFlags({ row, now, locale, onAct }: { row: ClientRow; now: 
                 The condition has not held since {formatInstantDate(flag.clearedAt, locale, row.timeZone, 'dayLong')}; the flag stays open until you act on it.
               </p>
             )}
-            <Button variant="secondary" className="mt-2 px-4 text-left" onClick={() => onAct(flag)}>
-              Act on {kind.toLowerCase()} for {row.clientName}
-            </Button>
+            <div className="mt-2 flex flex-wrap gap-2">
+              <Button variant="secondary" className="px-4 text-left" onClick={() => onAct(flag)}>
+                Act on {kind.toLowerCase()} for {row.clientName}
+              </Button>
+              <a href={`/messages?clientId=${row.clientId}&flag=${flag.id}`} className="btn btn-secondary px-4">
+                Contact {row.clientName} about {kind.toLowerCase()}
+              </a>
+            </div>
           </li>
         );
       })}

@@ -1,6 +1,7 @@
 // The row shapes of GET /api/triage and GET /api/caseload, as the browser receives them.
 import type { ClientOverview } from '../../lib/supervision/overview';
 import type { FlagView } from '../../lib/supervision/flags';
+import type { CareStatus } from '../../lib/care/care-status';
 
 export type FlagItem = FlagView;
 
@@ -11,6 +12,8 @@ export interface ClientRow extends ClientOverview {
   timeZone: string;
   /** Open, not snoozed; most urgent first (src/lib/flags/urgency.ts). */
   flags: FlagItem[];
+  /** Readiness, "no plan on file" and a baseline to record. */
+  care: CareStatus;
 }
 
 export type FlagAction = 'acknowledge' | 'snooze' | 'resolve';

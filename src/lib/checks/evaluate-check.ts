@@ -7,7 +7,13 @@
 //   diastolic (consensus definition of orthostatic hypotension). The consensus
 //   window is 3 minutes after becoming upright; the minutes are kept as
 //   evidence but do not gate the condition, because a later fall still
-//   deserves a look and many riders stay seated throughout.
+//   deserves a look and many riders stay seated throughout;
+// - without a baseline, for a client at risk: a systolic at or above an
+//   absolute level (clinic setting, default 150 mmHg, the level at which the
+//   Consortium for Spinal Cord Medicine guideline on acute management of
+//   autonomic dysreflexia has adults considered for drug treatment; recalled
+//   from memory, see PRODUCT.md). It applies whatever the baseline: a high
+//   baseline must not hide a dangerous reading.
 import type { AdSymptom, BloodPressure, SkinEntry } from './check-input';
 import { assessAdRisk, type AdRiskMarking } from './injury-level';
 import { AD_SYMPTOM_LABELS, SKIN_STATE_LABELS, joinList, siteLabel } from './labels';
@@ -15,6 +21,7 @@ import { AD_SYMPTOM_LABELS, SKIN_STATE_LABELS, joinList, siteLabel } from './lab
 export const AD_RISE_ABOVE_BASELINE_MMHG = 20;
 export const LOW_BP_SYSTOLIC_FALL_MMHG = 20;
 export const LOW_BP_DIASTOLIC_FALL_MMHG = 10;
+export const DEFAULT_AD_ABSOLUTE_SYSTOLIC_MMHG = 150;
 
 export type ConditionSeverity = 'urgent' | 'review';
 export type ReadingTime = 'before' | 'during' | 'after';
@@ -32,6 +39,8 @@ export interface ClientRiskProfile {
   injuryLevel: string | null;
   adRisk: AdRiskMarking;
   baselineSystolic: number | null;
+  /** The clinic's absolute systolic level for a client at risk; Kinloop's default when absent. */
+  absoluteSystolic?: number;
 }
 
 export interface BpRiseEvidence {
@@ -39,6 +48,9 @@ export interface BpRiseEvidence {
   baselineSystolic: number | null;
   /** Readings strictly above baseline + 20 mmHg, highest first. */
   readingsAboveBaseline: { when: ReadingTime; systolic: number; aboveBaselineMmHg: number }[];
+  /** For a client at risk: readings at or above the absolute level, highest first. */
+  readingsAtOrAboveAbsolute?: { when: ReadingTime; systolic: number }[];
+  absoluteSystolic?: number;
   symptoms: AdSymptom[];
 }
 
@@ -80,6 +92,8 @@ export interface CheckEvaluation {
   adRiskReason: string;
   /** What could not be judged, e.g. readings without a baseline. */
   notes: string[];
+  /** Blood pressure was recorded but the client has no baseline: the therapist is asked to record one. */
+  baselineMissing: boolean;
 }
 
 export function evaluateCheck(check: EvaluableCheck, client: ClientRiskProfile): CheckEvaluation {
@@ -88,10 +102,12 @@ export function evaluateCheck(check: EvaluableCheck, client: ClientRiskProfile):
   const notes: string[] = [];
 
   const baseline = client.baselineSystolic;
-  if (baseline === null && readings(check).length > 0) {
-    notes.push('No baseline systolic pressure is set, so the readings were not compared with one.');
+  const baselineMissing = baseline === null && readings(check).length > 0;
+  if (baselineMissing) {
+    notes.push('No baseline systolic pressure is set, so the readings were not compared with one. The clinic is asked to record one.');
   }
-  const rise = bpRise(check, baseline, risk.atRisk);
+  const absolute = client.absoluteSystolic ?? DEFAULT_AD_ABSOLUTE_SYSTOLIC_MMHG;
+  const rise = bpRise(check, baseline, risk.atRisk, absolute);
   if (rise) conditions.push(rise);
   const drop = bpDrop(check);
   if (drop) conditions.push(drop);
@@ -99,7 +115,7 @@ export function evaluateCheck(check: EvaluableCheck, client: ClientRiskProfile):
   if (skin) conditions.push(skin);
 
   const showSafetyPanel = check.adSymptoms.length > 0 || (risk.atRisk && rise !== null);
-  return { conditions, showSafetyPanel, adRiskReason: risk.reason, notes };
+  return { conditions, showSafetyPanel, adRiskReason: risk.reason, notes, baselineMissing };
 }
 
 function readings(check: EvaluableCheck): { when: ReadingTime; bp: BloodPressure }[] {
@@ -117,7 +133,13 @@ function whenPhrase(when: ReadingTime, afterMinutes: number | undefined): string
   return `${when} the ride`;
 }
 
-function bpRise(check: EvaluableCheck, baseline: number | null, atRisk: boolean): BpRiseCondition | null {
+function bpRise(check: EvaluableCheck, baseline: number | null, atRisk: boolean, absolute: number): BpRiseCondition | null {
+  const overAbsolute = atRisk
+    ? readings(check)
+        .filter((r) => r.bp.systolic >= absolute)
+        .map((r) => ({ when: r.when, systolic: r.bp.systolic }))
+        .sort((a, b) => b.systolic - a.systolic)
+    : [];
   const above =
     baseline === null
       ? []
@@ -126,7 +148,7 @@ function bpRise(check: EvaluableCheck, baseline: number | null, atRisk: boolean)
           .map((r) => ({ when: r.when, systolic: r.bp.systolic, aboveBaselineMmHg: r.bp.systolic - baseline }))
           .sort((a, b) => b.systolic - a.systolic);
   const symptoms = check.adSymptoms;
-  if (above.length === 0 && symptoms.length === 0) return null;
+  if (above.length === 0 && symptoms.length === 0 && overAbsolute.length === 0) return null;
 
   const symptomText = joinList(symptoms.map((s) => AD_SYMPTOM_LABELS[s]));
   const highest = above[0];
@@ -134,8 +156,17 @@ function bpRise(check: EvaluableCheck, baseline: number | null, atRisk: boolean)
     ? `systolic pressure reached ${highest.systolic} mmHg ${whenPhrase(highest.when, check.bpAfterMinutes)}, ${fmt(highest.aboveBaselineMmHg)} mmHg above the client's baseline of ${fmt(baseline as number)} mmHg`
     : '';
 
+  const top = overAbsolute[0];
+  const absoluteText = top
+    ? `systolic pressure reached ${top.systolic} mmHg ${whenPhrase(top.when, check.bpAfterMinutes)}, at or above the clinic's level of ${absolute} mmHg for a client at risk of autonomic dysreflexia`
+    : '';
+
   let reason: string;
-  if (symptoms.length > 0 && highest) {
+  if (top && !highest) {
+    const symptomPart = symptoms.length > 0 ? ` Possible signs of autonomic dysreflexia were ticked (${symptomText}).` : '';
+    const baselinePart = baseline === null ? ' No baseline systolic pressure is set.' : '';
+    reason = `${capitalise(absoluteText)}.${symptomPart}${baselinePart}`;
+  } else if (symptoms.length > 0 && highest) {
     reason = `Possible signs of autonomic dysreflexia were ticked (${symptomText}) and ${riseText}.`;
   } else if (symptoms.length > 0) {
     const baselineText =
@@ -151,7 +182,13 @@ function bpRise(check: EvaluableCheck, baseline: number | null, atRisk: boolean)
     kind: 'bp_rise',
     severity: symptoms.length > 0 || atRisk ? 'urgent' : 'review',
     reason,
-    evidence: { atRisk, baselineSystolic: baseline, readingsAboveBaseline: above, symptoms: [...symptoms] },
+    evidence: {
+      atRisk,
+      baselineSystolic: baseline,
+      readingsAboveBaseline: above,
+      symptoms: [...symptoms],
+      ...(overAbsolute.length ? { readingsAtOrAboveAbsolute: overAbsolute, absoluteSystolic: absolute } : {}),
+    },
   };
 }
 

@@ -77,3 +77,24 @@ export const PRE_PROGRAM_SCREENING: { title: string; intro: string; items: Scree
 export const NOT_DIAGNOSTIC =
   'Kinloop is not a diagnostic device. These figures come from the cycle\u2019s ride files and the records kept in Kinloop; ' +
   'read them with the client\u2019s clinical picture and your clinic\u2019s own protocols.';
+
+/** The headings of the rider's own dysreflexia plan, wherever it is shown (safety panel, prescription card, wallet card). */
+export const AD_PLAN_TEXT = {
+  title: "This rider's own plan from their clinic",
+  walletTitle: 'My autonomic dysreflexia plan',
+  resting: 'Usual resting blood pressure',
+  signs: 'Signs this rider gets',
+  firstSteps: 'First steps',
+  physicianPrescribed: 'What their physician prescribed for an episode',
+  physicianNote: "As the clinic wrote it from the rider's physician. Kinloop itself never suggests medication.",
+  whoToCall: 'Who to call',
+  contacts: 'Emergency contacts',
+  noPlan: 'No plan on file',
+  noPlanForRider: 'The clinic has not written your own plan into Kinloop yet. Follow the general steps above and ask the clinic for your plan.',
+  noPlanForStaff: 'This client is at risk of autonomic dysreflexia and has no plan on file: write one from their physician’s instructions.',
+  emergency: 'In an emergency call your local emergency number.',
+};
+
+/** Shown where a prescription is saved for a client who is not cleared. */
+export const NOT_CLEARED_CAUTION =
+  'This client does not have a current medical clearance with a complete screening. Check with your clinic’s protocols before the program goes on, and say why you are saving it now; the reason is kept with this version and in the audit log.';

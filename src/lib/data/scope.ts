@@ -17,6 +17,7 @@ import type {
   AuditRow,
   CarerLinkRow,
   CheckRow,
+  ClearanceRow,
   ClientNoteRow,
   ClientRow,
   ClinicRow,
@@ -30,6 +31,7 @@ import type {
   MonitoringEntryRow,
   PauseRow,
   PrescriptionRow,
+  ProgressionProposalRow,
   RideRow,
   StaffRole,
   UploadRow,
@@ -78,6 +80,13 @@ const CLIENT_WRITE_NEED: Record<string, ClientNeed> = {
   monitoring_entries: 'manage',
   invitations: 'manage',
   carer_links: 'manage',
+  screening_versions: 'manage',
+  clearances: 'manage',
+  ad_plans: 'manage',
+  progression_proposals: 'manage',
+  // The rider and carers write in the thread; anyone who reads it keeps their own read position.
+  messages: 'contribute',
+  message_reads: 'read',
 };
 
 /** A row for `table` that names `column` as `value`: filled in when absent, refused when it names another. */
@@ -282,12 +291,16 @@ const RECORDS = {
   session: { table: 'rides', what: 'That session' },
   upload: { table: 'uploads', what: 'That upload' },
   flag: { table: 'flags', what: 'That flag' },
+  clearance: { table: 'clearances', what: 'That clearance document' },
+  progression: { table: 'progression_proposals', what: 'That progression proposal' },
 } as const;
 type RecordKind = keyof typeof RECORDS;
 interface RecordRows {
   session: RideRow;
   upload: UploadRow;
   flag: FlagRow;
+  clearance: ClearanceRow;
+  progression: ProgressionProposalRow;
 }
 
 export class Scope {
@@ -322,6 +335,12 @@ export class Scope {
   profiles = (alias?: string): Query<ImportProfileRow> => this.db(table('import_profiles', alias));
   devices = (alias?: string): Query<DeviceRow> => this.db(table('devices', alias));
   invitations = (alias?: string): Query<InvitationRow> => this.db(table('invitations', alias));
+  screenings = (alias?: string): Query => this.db(table('screening_versions', alias));
+  clearances = (alias?: string): Query<ClearanceRow> => this.db(table('clearances', alias));
+  adPlans = (alias?: string): Query => this.db(table('ad_plans', alias));
+  progressions = (alias?: string): Query<ProgressionProposalRow> => this.db(table('progression_proposals', alias));
+  messages = (alias?: string): Query => this.db(table('messages', alias));
+  messageReads = (alias?: string): Query => this.db(table('message_reads', alias));
   /** Memberships of the caller's clinics (and the caller's own). */
   staff = (alias?: string): Query<MembershipRow> => this.db(table('memberships', alias));
   people = (alias?: string): Query<UserRow> => this.db(table('users', alias));

@@ -103,10 +103,18 @@ export const READ_RULES: Record<string, Rule> = {
   prescriptions: ofReadableClient,
   distance_goals: ofReadableClient,
   carer_links: ofReadableClient,
+  // The rider's own dysreflexia plan and the thread with the clinic: the rider, active carers and staff.
+  ad_plans: ofReadableClient,
+  messages: ofReadableClient,
+  message_reads: ofReadableClient,
   ride_series: (q, a, k, v) => void q.where((w) => w.whereIn(`${a}.ride_id`, k('rides').select('id').whereIn('client_id', readableClientIds(k, v)))),
   // The clinic's records about a client: its staff only.
   client_notes: ofManagedClient,
   flags: ofManagedClient,
+  // Screening, the physician's clearance and proposals for the therapist: the clinic's record.
+  screening_versions: ofManagedClient,
+  clearances: ofManagedClient,
+  progression_proposals: ofManagedClient,
   // Its staff's time: the month's totals keep the time spent on a client who has left since.
   monitoring_entries: ofStaffClinic,
   flag_events: (q, a, k, v) => void q.where((w) => w.whereIn(`${a}.flag_id`, k('flags').select('id').whereIn('client_id', managedClientIds(k, v)))),
@@ -133,5 +141,39 @@ export const READ_RULES: Record<string, Rule> = {
 };
 
 /** Tables with a client's id, and those that also carry its clinic's. */
-export const CLIENT_TABLES = new Set(['rides', 'uploads', 'checks', 'pauses', 'prescriptions', 'distance_goals', 'carer_links', 'client_notes', 'flags', 'monitoring_entries', 'invitations']);
-export const CLINIC_TABLES = new Set(['clients', 'rides', 'uploads', 'checks', 'flags', 'monitoring_entries', 'import_profiles', 'devices', 'invitations', 'memberships']);
+export const CLIENT_TABLES = new Set([
+  'rides',
+  'uploads',
+  'checks',
+  'pauses',
+  'prescriptions',
+  'distance_goals',
+  'carer_links',
+  'client_notes',
+  'flags',
+  'monitoring_entries',
+  'invitations',
+  'screening_versions',
+  'clearances',
+  'ad_plans',
+  'progression_proposals',
+  'messages',
+  'message_reads',
+]);
+export const CLINIC_TABLES = new Set([
+  'clients',
+  'rides',
+  'uploads',
+  'checks',
+  'flags',
+  'monitoring_entries',
+  'import_profiles',
+  'devices',
+  'invitations',
+  'memberships',
+  'screening_versions',
+  'clearances',
+  'ad_plans',
+  'progression_proposals',
+  'messages',
+]);

@@ -11,6 +11,9 @@ export interface ClinicRow {
   time_zone: string;
   /** Gross efficiency behind energy estimates; null: Kinloop's default. */
   fes_efficiency_pct: string | null;
+  /** Null: Kinloop's defaults (src/lib/care/care-settings.ts). */
+  clearance_review_months: number | null;
+  ad_absolute_systolic: number | null;
   /** BCP 47; null takes the default from the time zone (src/lib/time/locale.ts). */
   locale: string | null;
   created_at: Date;
@@ -190,6 +193,7 @@ export interface RideRow {
   work_kj: number | null;
   mean_cadence_rpm: number | null;
   current_per_watt_ma_per_w: number | null;
+  endurance_ratio_pct: number | null;
   pulse_width_us: number | null;
   frequency_hz: number | null;
   samples: number;
@@ -239,6 +243,9 @@ export interface PrescriptionRow {
   resistance: number | null;
   channels: Record<string, ChannelLimits>;
   notes: string | null;
+  /** A progression plan (src/lib/care/progression.ts) or null. */
+  progression: unknown;
+  not_cleared_reason: string | null;
   created_by: string;
   created_at: Date;
 }
@@ -333,6 +340,7 @@ export interface NotificationPreferencesRow {
   weekly_summary: boolean;
   daily_digest: boolean;
   urgent_alerts: boolean;
+  messages: boolean;
   unsubscribe_token: string;
   updated_at: Date;
 }
@@ -349,5 +357,36 @@ export interface MonitoringEntryRow {
   started_at: Date;
   seconds: number;
   note: string | null;
+  created_at: Date;
+}
+
+export interface ClearanceRow {
+  id: string;
+  clinic_id: string;
+  client_id: string;
+  storage_key: string;
+  sha256: string;
+  byte_size: string | number;
+  content_type: string;
+  original_name: string;
+  cleared_on: string;
+  clinician: string;
+  review_on: string;
+  uploaded_by: string;
+  created_at: Date;
+}
+
+export interface ProgressionProposalRow {
+  id: string;
+  clinic_id: string;
+  client_id: string;
+  prescription_id: string;
+  iso_week: string;
+  proposed: Record<string, number>;
+  evidence: Record<string, unknown>;
+  state: 'open' | 'accepted' | 'dismissed' | 'superseded';
+  decided_by: string | null;
+  decided_at: Date | null;
+  result_prescription_id: string | null;
   created_at: Date;
 }

@@ -3,6 +3,7 @@ import { DateTime } from 'luxon';
 import { hashPassword } from '../auth/password';
 import { DEMO_CARERS, DEMO_CLIENTS, DEMO_CLINIC, DEMO_STAFF } from './scenario';
 import { seedDemoRides } from './seed-rides';
+import { seedDemoCare } from './seed-care';
 
 export interface SeedOptions {
   password: string;
@@ -22,7 +23,9 @@ export async function seedDemoIfEmpty(knex: Db, options: SeedOptions): Promise<(
   if (existing) return null;
   const now = options.now ?? new Date();
   const ids = await seedDemoPeople(knex, { ...options, now });
-  return { ...ids, ...(await seedDemoRides(knex, ids, now)) };
+  const rides = await seedDemoRides(knex, ids, now);
+  await seedDemoCare(knex, ids, now);
+  return { ...ids, ...rides };
 }
 
 export async function seedDemoPeople(knex: Db, { password, now = new Date() }: SeedOptions): Promise<SeededIds> {

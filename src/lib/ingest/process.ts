@@ -141,6 +141,7 @@ export async function saveRide(
     current_per_watt_ma_per_w: s.currentPerWattMaPerW,
     pulse_width_us: s.pulseWidthUs,
     frequency_hz: s.frequencyHz,
+    endurance_ratio_pct: s.enduranceRatioPct,
     samples: s.samples,
     channels: JSON.stringify(s.channels),
     warnings: JSON.stringify(p.warnings),

@@ -20,12 +20,15 @@ export const MAX_FILE_BYTES = 25 * 1024 * 1024;
 export const MAX_FILES = 50;
 const MAX_FIELDS = 200;
 const MAX_FIELD_BYTES = 4096;
+/** Bytes of a file's start that `sniff` is given. */
+const HEAD_BYTES = 16;
 
 export interface StoredFile {
   name: string;
   storageKey: string;
   sha256: string;
   byteSize: number;
+  contentType: string;
 }
 
 export interface ReceivedUpload {
@@ -33,8 +36,29 @@ export interface ReceivedUpload {
   files: StoredFile[];
 }
 
+/** What one kind of upload accepts; ride files and clearance documents share the code below. */
+export interface ReceiveRules {
+  /** The multipart field that carries the files. */
+  field: string;
+  maxFileBytes: number;
+  maxFiles: number;
+  /** Words for the refusals: "ride file", "clearance document". */
+  what: string;
+  tooLarge: (name: string) => HttpError;
+  /** The type stored with each object, unless `sniff` decides it. */
+  contentType: string;
+  /**
+   * Decides a file by its first bytes (at most HEAD_BYTES; fewer for a shorter
+   * file): returns the content type to store it as, or throws the refusal.
+   * The transfer to storage starts only after it, so a refused file stores nothing.
+   */
+  sniff?: (head: Buffer, name: string) => string;
+}
+
 const tooLarge = (name: string) =>
   new HttpError(413, 'too_large', `"${name}" is larger than 25 MB, the most Kinloop accepts for one ride file. Nothing from this upload was saved; check that it is a ride file from the cycle.`);
+
+export const RIDE_FILES: ReceiveRules = { field: 'files', maxFileBytes: MAX_FILE_BYTES, maxFiles: MAX_FILES, what: 'ride file', tooLarge, contentType: 'text/csv' };
 
 export const storageUnavailable = () =>
   new HttpError(503, 'storage_unavailable', 'The file store is not reachable right now, so nothing was saved. Try the upload again in a few minutes.');
@@ -53,20 +77,30 @@ export class UploadInterrupted extends HttpError {
  * (so `clientId` must come before the files, as the upload page sends it) and
  * returns the key prefix to store them under.
  */
-export async function receiveRideFiles(
+export function receiveRideFiles(
   request: Request,
   beforeFirstFile: (fields: Record<string, string[]>, declaredBytes: number) => Promise<string>,
 ): Promise<ReceivedUpload> {
+  return receiveFiles(request, RIDE_FILES, beforeFirstFile);
+}
+
+/** Streams the request's files to storage under `rules`; see `receiveRideFiles`. */
+export async function receiveFiles(
+  request: Request,
+  rules: ReceiveRules,
+  beforeFirstFile: (fields: Record<string, string[]>, declaredBytes: number) => Promise<string>,
+): Promise<ReceivedUpload> {
+  const { field, maxFileBytes, maxFiles, what } = rules;
   const type = request.headers.get('content-type') ?? '';
   if (!type.toLowerCase().startsWith('multipart/form-data')) {
-    throw new HttpError(415, 'unsupported_media_type', 'Send ride files as multipart/form-data with the field "files".');
+    throw new HttpError(415, 'unsupported_media_type', `Send the ${what} as multipart/form-data in the field "${field}".`);
   }
   const declared = Number(request.headers.get('content-length') ?? 0) || 0;
-  if (declared > MAX_FILES * (MAX_FILE_BYTES + 64 * 1024)) {
+  if (declared > maxFiles * (maxFileBytes + 64 * 1024)) {
     if (request.body) discardRest(request.body.getReader());
-    throw new HttpError(413, 'too_large', 'This upload is larger than Kinloop accepts in one request (50 files of at most 25 MB). Nothing was saved.');
+    throw new HttpError(413, 'too_large', `This upload is larger than Kinloop accepts in one request (${maxFiles} ${maxFiles === 1 ? 'file' : 'files'} of at most ${Math.round(maxFileBytes / 1024 / 1024)} MB). Nothing was saved.`);
   }
-  if (!request.body) throw badRequest('The upload was empty: choose at least one ride file.');
+  if (!request.body) throw badRequest(`The upload was empty: choose a ${what}.`);
 
   let parser: busboy.Busboy;
   try {
@@ -75,7 +109,7 @@ export async function receiveRideFiles(
       // File names are UTF-8 as browsers send them, not Latin-1.
       defParamCharset: 'utf8',
       // One byte over the limit is how busboy tells a file that is too large from one exactly at it.
-      limits: { fileSize: MAX_FILE_BYTES + 1, files: MAX_FILES, fields: MAX_FIELDS, fieldSize: MAX_FIELD_BYTES, parts: MAX_FILES + MAX_FIELDS },
+      limits: { fileSize: maxFileBytes + 1, files: maxFiles, fields: MAX_FIELDS, fieldSize: MAX_FIELD_BYTES, parts: maxFiles + MAX_FIELDS },
     });
   } catch (err) {
     throw badRequest(`The upload could not be read as multipart/form-data: ${(err as Error).message}`);
@@ -86,7 +120,7 @@ export async function receiveRideFiles(
   const transfers: Promise<void>[] = [];
   const abort = new AbortController();
   // Each file's pipeline and transfer listen to the one signal.
-  setMaxListeners(4 * MAX_FILES + 10, abort.signal);
+  setMaxListeners(4 * maxFiles + 10, abort.signal);
   let failure: unknown = null;
   let signalFailure: () => void = () => undefined;
   const failed = new Promise<void>((resolve) => (signalFailure = resolve));
@@ -103,16 +137,16 @@ export async function receiveRideFiles(
     if (info.valueTruncated) fail(badRequest(`The field "${name.slice(0, 40)}" is longer than ${MAX_FIELD_BYTES} bytes.`));
     (fields[name] ??= []).push(value);
   });
-  parser.on('filesLimit', () => fail(new HttpError(413, 'too_many_files', `Upload at most ${MAX_FILES} files at a time. Nothing from this upload was saved.`)));
+  parser.on('filesLimit', () => fail(new HttpError(413, 'too_many_files', `Upload at most ${maxFiles} ${maxFiles === 1 ? 'file' : 'files'} at a time. Nothing from this upload was saved.`)));
   parser.on('fieldsLimit', () => fail(badRequest(`The upload has more than ${MAX_FIELDS} fields.`)));
-  parser.on('partsLimit', () => fail(badRequest('The upload has more parts than a ride-file upload has.')));
+  parser.on('partsLimit', () => fail(badRequest(`The upload has more parts than an upload of a ${what} has.`)));
   parser.on('error', (err: Error) => fail(badRequest(`The upload could not be read as multipart/form-data: ${err.message}`)));
   parser.on('file', (fieldName, stream, info) => {
     // Every file stream has a listener for its errors, whatever happens to it next.
     stream.on('error', () => undefined);
     const name = cleanFileName(info.filename);
-    if (failure || fieldName !== 'files') {
-      if (fieldName !== 'files') fail(badRequest(`Unexpected file field "${fieldName.slice(0, 40)}": send ride files in the field "files".`));
+    if (failure || fieldName !== field) {
+      if (fieldName !== field) fail(badRequest(`Unexpected file field "${fieldName.slice(0, 40)}": send the ${what} in the field "${field}".`));
       stream.resume();
       return;
     }
@@ -120,18 +154,29 @@ export async function receiveRideFiles(
     checked ??= beforeFirstFile(fields, declared);
     const hash = createHash('sha256');
     let size = 0;
+    let head = Buffer.alloc(0);
+    let headSeen: (head: Buffer) => void = () => undefined;
+    const headKnown = new Promise<Buffer>((resolve) => (headSeen = resolve));
     const meter = new Transform({
       transform(chunk: Buffer, _enc, done) {
         hash.update(chunk);
         size += chunk.length;
+        if (head.length < HEAD_BYTES) {
+          head = Buffer.concat([head, chunk.subarray(0, HEAD_BYTES - head.length)]);
+          if (head.length >= HEAD_BYTES) headSeen(head);
+        }
         done(null, chunk);
       },
+      flush(done) {
+        headSeen(head);
+        done();
+      },
     });
-    stream.on('limit', () => fail(tooLarge(name)));
+    stream.on('limit', () => fail(rules.tooLarge(name)));
     const body = new PassThrough();
     // The bytes flow into `body` while the access check runs; the transfer to storage starts after it.
     const flowing = pipeline(stream, meter, body, { signal: abort.signal });
-    flowing.catch(() => undefined);
+    flowing.catch(() => undefined).finally(() => headSeen(head));
     const transfer = (async () => {
       let prefix: string;
       try {
@@ -141,16 +186,27 @@ export async function receiveRideFiles(
         return;
       }
       if (failure) return;
+      let contentType = rules.contentType;
+      if (rules.sniff) {
+        const start = await headKnown;
+        if (failure) return;
+        try {
+          contentType = rules.sniff(start, name);
+        } catch (err) {
+          fail(err);
+          return;
+        }
+      }
       const key = `${prefix}/${randomUUID()}`;
       try {
-        await Promise.all([putObjectStream(key, body, 'text/csv', abort.signal), flowing]);
+        await Promise.all([putObjectStream(key, body, contentType, abort.signal), flowing]);
       } catch (err) {
         if (!failure) fail(err instanceof HttpError ? err : storageUnavailable());
         // An abort may come after the store took the last part: the object is removed with the others.
-        stored.push({ index, name, storageKey: key, sha256: '', byteSize: size });
+        stored.push({ index, name, storageKey: key, sha256: '', byteSize: size, contentType });
         return;
       }
-      stored.push({ index, name, storageKey: key, sha256: hash.digest('hex'), byteSize: size });
+      stored.push({ index, name, storageKey: key, sha256: hash.digest('hex'), byteSize: size, contentType });
     })();
     transfers.push(transfer);
   });
@@ -165,7 +221,7 @@ export async function receiveRideFiles(
     if (!received.error && !received.complete) discardRest(reader);
   }
   await Promise.all(transfers);
-  if (!failure && stored.length === 0) failure = badRequest('The upload had no ride file: choose at least one file in the field "files".');
+  if (!failure && stored.length === 0) failure = badRequest(`The upload had no ${what}: choose a file in the field "${field}".`);
   if (failure) {
     await deleteObjects(stored.map((f) => f.storageKey));
     if (failure instanceof UploadInterrupted) console.warn(`upload interrupted after ${received.bytes} bytes; ${stored.length} partly stored file(s) removed`);

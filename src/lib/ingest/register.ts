@@ -3,7 +3,7 @@ import type { UploadRow } from '../db/tables';
 import { QUEUES, sendJob } from '../jobs/queue';
 import type { StoredFile } from './receive';
 
-export interface NewUpload extends StoredFile {
+export interface NewUpload extends Omit<StoredFile, 'contentType'> {
   fallbackStartedAt: Date | null;
 }
 

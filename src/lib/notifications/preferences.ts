@@ -4,7 +4,7 @@ import { z } from 'zod';
 import type { RequestContext } from '../auth/context';
 import type { NotificationPreferencesRow } from '../db/tables';
 
-export const TOPICS = ['reminders', 'weekly_summary', 'daily_digest', 'urgent_alerts'] as const;
+export const TOPICS = ['reminders', 'weekly_summary', 'daily_digest', 'urgent_alerts', 'messages'] as const;
 export type Topic = (typeof TOPICS)[number];
 
 export const TOPIC_WORDS: Record<Topic, string> = {
@@ -12,9 +12,11 @@ export const TOPIC_WORDS: Record<Topic, string> = {
   weekly_summary: 'the weekly summary of your riding',
   daily_digest: 'the daily digest of flags',
   urgent_alerts: 'immediate alerts for urgent flags',
+  messages: 'notices of new messages',
 };
 
-export const preferencesInputSchema = z.object({ reminders: z.boolean(), weeklySummary: z.boolean(), dailyDigest: z.boolean(), urgentAlerts: z.boolean() }).strict();
+// `messages` came later: a client that does not send it keeps the stored choice.
+export const preferencesInputSchema = z.object({ reminders: z.boolean(), weeklySummary: z.boolean(), dailyDigest: z.boolean(), urgentAlerts: z.boolean(), messages: z.boolean().optional() }).strict();
 
 /** A user's e-mail choices; the row (and its unsubscribe token) is made on first use, everything on. */
 export async function preferencesOf(knex: Db, userId: string): Promise<NotificationPreferencesRow> {
@@ -36,7 +38,8 @@ function view(p: NotificationPreferencesRow, ctx: RequestContext) {
     weeklySummary: p.weekly_summary,
     dailyDigest: p.daily_digest,
     urgentAlerts: p.urgent_alerts,
-    applicable: { reminders: rider || ctx.viewer.carerOf.length > 0, weeklySummary: rider, dailyDigest: staff, urgentAlerts: staff },
+    messages: p.messages,
+    applicable: { reminders: rider || ctx.viewer.carerOf.length > 0, weeklySummary: rider, dailyDigest: staff, urgentAlerts: staff, messages: true },
   };
 }
 
@@ -49,7 +52,7 @@ export async function savePreferences(ctx: RequestContext, input: z.infer<typeof
   await preferencesOf(own, ctx.viewer.userId);
   const [row] = await own<NotificationPreferencesRow>('notification_preferences')
     .where({ user_id: ctx.viewer.userId })
-    .update({ reminders: input.reminders, weekly_summary: input.weeklySummary, daily_digest: input.dailyDigest, urgent_alerts: input.urgentAlerts, updated_at: own.fn.now() as never })
+    .update({ reminders: input.reminders, weekly_summary: input.weeklySummary, daily_digest: input.dailyDigest, urgent_alerts: input.urgentAlerts, ...(input.messages === undefined ? {} : { messages: input.messages }), updated_at: own.fn.now() as never })
     .returning('*');
   return view(row, ctx);
 }

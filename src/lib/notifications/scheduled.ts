@@ -19,6 +19,7 @@ import { localDate } from '../time/local-date';
 import { notificationEmail, type Recipient } from './compose';
 import { riderAndCarers, riderOnly, therapistsOf } from './recipients';
 import { FLAG_KIND_WORDS } from '../flags/words';
+import { clearanceReviewLines } from '../care/care-status';
 import { flagReason } from '../flags/reason';
 import { count, distance } from '../format/numbers';
 import { FALLBACK_LOCALE, formatDate, weekOf } from '../time/format';
@@ -48,16 +49,23 @@ export async function sendScheduledEmails(
 async function digests(knex: Db, clients: ClientRow[], now: Date): Promise<number> {
   const flags = await knex<FlagRow>('flags').whereIn('state', ['open', 'acknowledged']).orderBy('raised_at');
   const clinics = new Map((await knex('clinics').select('id', 'time_zone', 'locale')).map((c) => [c.id as string, c as { time_zone: string; locale: string | null }]));
-  const byRecipient = new Map<string, { to: Recipient; date: string; locale: string; lines: { fresh: boolean; text: string }[] }>();
+  const byRecipient = new Map<string, { to: Recipient; date: string; locale: string; lines: { fresh: boolean; text: string }[]; reviews: string[] }>();
+  // Clearances falling due for review go into the same digest (issue 12).
+  const reviews = await clearanceReviewLines(knex, clients, now, (c) => {
+    const clinic = clinics.get(c.clinic_id);
+    return clinic ? clinicLocale(clinic) : FALLBACK_LOCALE;
+  });
   for (const client of clients) {
     const own = flags.filter((f) => f.client_id === client.id);
-    if (!own.length) continue;
+    const review = reviews.get(client.id);
+    if (!own.length && !review) continue;
     const clinic = clinics.get(client.clinic_id);
     const local = DateTime.fromJSDate(now).setZone(clinic?.time_zone ?? 'UTC');
     if (local.hour < DIGEST_HOUR) continue;
     const locale = clinic ? clinicLocale(clinic) : FALLBACK_LOCALE;
     for (const to of await therapistsOf(knex, client, 'daily_digest')) {
-      const entry = byRecipient.get(to.userId) ?? { to, date: local.toISODate()!, locale, lines: [] };
+      const entry = byRecipient.get(to.userId) ?? { to, date: local.toISODate()!, locale, lines: [], reviews: [] };
+      if (review) entry.reviews.push(review);
       for (const f of own) {
         const fresh = now.getTime() - f.raised_at.getTime() < 86_400_000;
         entry.lines.push({ fresh, text: `${client.display_name} — ${FLAG_KIND_WORDS[f.kind]} (${f.severity}${f.state === 'acknowledged' ? ', acknowledged' : ''}): ${flagReason(f, locale)}` });
@@ -66,15 +74,16 @@ async function digests(knex: Db, clients: ClientRow[], now: Date): Promise<numbe
     }
   }
   let n = 0;
-  for (const { to, date, locale, lines } of byRecipient.values()) {
+  for (const { to, date, locale, lines, reviews: due } of byRecipient.values()) {
     const fresh = lines.filter((l) => l.fresh).map((l) => `New: ${l.text}`);
     const open = lines.filter((l) => !l.fresh).map((l) => `Still open: ${l.text}`);
+    const reviewText = due.length ? `, ${due.length} clearance review${due.length === 1 ? '' : 's'}` : '';
     const id = await enqueueEmail(
       knex,
       notificationEmail(to, 'daily_digest', {
         kind: 'daily_digest',
-        subject: `Kinloop: ${fresh.length} new and ${open.length} open flag${fresh.length + open.length === 1 ? '' : 's'} today`,
-        paragraphs: [`Here are the flags for your clients on ${formatDate(date, locale, 'dayLong')}.`, ...fresh, ...open],
+        subject: `Kinloop: ${fresh.length} new and ${open.length} open flag${fresh.length + open.length === 1 ? '' : 's'}${reviewText} today`,
+        paragraphs: [`Here are the flags for your clients on ${formatDate(date, locale, 'dayLong')}.`, ...fresh, ...open, ...due.map((r) => `Clearance: ${r}`)],
         action: { label: 'Open triage', url: `${config().publicUrl}/triage` },
         dedupeKey: `digest:${to.userId}:${date}`,
         caution: true,

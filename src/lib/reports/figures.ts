@@ -71,6 +71,8 @@ export interface ReportSessionInput {
   workKj: number | null;
   distanceM: number | null;
   currentPerWattMaPerW: number | null;
+  /** Within-ride endurance (PRODUCT.md); null under 12 active minutes. */
+  enduranceRatioPct: number | null;
   /** Long enough to count towards the prescription of its day. */
   counted: boolean;
   /** The usual level the power-drop rule compares this session with. */
@@ -201,6 +203,8 @@ export function reportFigures<S extends ReportSessionInput, V extends ReportVers
   const cpw = s.filter((x) => x.currentPerWattMaPerW !== null).map((x) => ({ t: Date.parse(x.startedAt), y: x.currentPerWattMaPerW! }));
   const cpwTrend = cpw.length >= 3 ? linearTrend(cpw.map((p) => ({ x: (p.t - endMs) / WEEK_MS, y: p.y }))) : null;
   const cpwHalf = comparedCount(cpw.length);
+  const endurance = s.filter((x) => x.enduranceRatioPct !== null).map((x) => ({ t: Date.parse(x.startedAt), y: x.enduranceRatioPct! }));
+  const enduranceHalf = comparedCount(endurance.length);
 
   // The week that holds the period's last day is under way when that day is today.
   const lastWeek = r.weeks[r.weeks.length - 1]?.isoWeek ?? '';
@@ -266,11 +270,15 @@ export function reportFigures<S extends ReportSessionInput, V extends ReportVers
       firstCpw: cpwHalf ? meanOf(cpw.slice(0, cpwHalf).map((p) => p.y)) : null,
       lastCpw: cpwHalf ? meanOf(cpw.slice(-cpwHalf).map((p) => p.y)) : null,
       cpwPerWeek: cpwTrend?.slope ?? null,
+      enduranceHalf,
+      firstEndurance: enduranceHalf ? meanOf(endurance.slice(0, enduranceHalf).map((p) => p.y)) : null,
+      lastEndurance: enduranceHalf ? meanOf(endurance.slice(-enduranceHalf).map((p) => p.y)) : null,
     },
     series: {
       power: s.filter((x) => x.meanPowerW !== null).map((x) => ({ t: Date.parse(x.startedAt), y: x.meanPowerW! })),
       powerReference: s.filter((x) => x.baselineW !== null).map((x) => ({ t: Date.parse(x.startedAt), y: x.baselineW! })),
       currentPerWatt: cpw,
+      endurance,
     },
     weeks,
     blocks: firstBlock && lastBlock

@@ -302,22 +302,31 @@ export async function reportPdf(report: Report, locale: string): Promise<Buffer>
       averages: averages((b) => b.meanPowerW, 'W', 1),
     })];
     doc.y = Math.max(...bottoms);
-    if (f.series.currentPerWatt.length >= 2) {
+    // Current per watt and power held to the end, per session, side by side.
+    const perSession: { title: string; unit: string; digits: number; points: { t: number; y: number }[] }[] = [
+      { title: 'Current per watt per session (mA/W)', unit: 'mA/W', digits: 2, points: f.series.currentPerWatt },
+      { title: 'Power held to the end per session (%)', unit: '%', digits: 0, points: f.series.endurance },
+    ].filter((c) => c.points.length >= 2);
+    if (perSession.length) {
       room(doc, 110);
       const span = Math.max(1, f.period.endMs - f.period.startMs);
-      const slotsCpw = 100;
-      doc.y = chart(doc, {
-        x: M.left,
-        y: doc.y + 2,
-        width: half,
-        height: 60,
-        title: 'Current per watt per session (mA/W)',
-        unit: 'mA/W',
-        digits: 2,
-        slots: slotsCpw,
-        xLabels: [w.day(report.period.from), w.day(report.period.to)],
-        series: [{ kind: 'line', color: ACCENT, values: f.series.currentPerWatt.map((p) => ({ x: Math.min(slotsCpw - 1, Math.floor(((p.t - f.period.startMs) / span) * slotsCpw)), y: p.y })) }],
-      });
+      const slotsPerSession = 100;
+      const top = doc.y + 2;
+      const bottomsPerSession = perSession.map((c, i) =>
+        chart(doc, {
+          x: M.left + i * (half + 16),
+          y: top,
+          width: half,
+          height: 60,
+          title: c.title,
+          unit: c.unit,
+          digits: c.digits,
+          slots: slotsPerSession,
+          xLabels: [w.day(report.period.from), w.day(report.period.to)],
+          series: [{ kind: 'line', color: ACCENT, values: c.points.map((p) => ({ x: Math.min(slotsPerSession - 1, Math.floor(((p.t - f.period.startMs) / span) * slotsPerSession)), y: p.y })) }],
+        }),
+      );
+      doc.y = Math.max(...bottomsPerSession);
     }
     para(doc, 'Bars and dots: each week of the period (the last may be under way). Dashed lines: the averages of the first and last finished weeks compared above.', { size: 7.5, color: SOFT });
   } else {

@@ -105,6 +105,7 @@ export async function loadReport(ctx: RequestContext, clientId: string, period: 
     workKj: r.work_kj,
     distanceM: r.distance_m,
     currentPerWattMaPerW: r.current_per_watt_ma_per_w,
+    enduranceRatioPct: r.endurance_ratio_pct ?? null,
     counted: points.get(r.id)?.counted ?? false,
     baselineW: points.get(r.id)?.baselineW ?? null,
   }));

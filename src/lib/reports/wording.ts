@@ -87,6 +87,10 @@ function sessionRows(report: Report, locale: string, day: (d: string) => string)
   rows.push(['Distance', distance(s.distanceM, locale)]);
   if (s.cpwHalf > 0) rows.push([`Current per watt, first and last ${plural(s.cpwHalf, 'session')}`, `${withUnit(s.firstCpw, 2, 'mA/W', locale)} → ${withUnit(s.lastCpw, 2, 'mA/W', locale)}`]);
   rows.push(['Current per watt trend, this period', s.cpwPerWeek === null ? 'Too few sessions to tell' : `${signed(s.cpwPerWeek, 2, locale)} mA/W a week`]);
+  rows.push([
+    s.enduranceHalf > 0 ? `Power held to the end (last 5 active minutes ÷ first 5), first and last ${plural(s.enduranceHalf, 'session')}` : 'Power held to the end (last 5 active minutes ÷ first 5)',
+    s.enduranceHalf > 0 ? `${withUnit(s.firstEndurance, 0, '%', locale)} → ${withUnit(s.lastEndurance, 0, '%', locale)}` : 'No session of 12 active minutes or more',
+  ]);
   return rows;
 }
 

@@ -6,6 +6,8 @@ import { evaluateCheck } from '../checks/evaluate-check';
 import type { CheckRow } from '../db/tables';
 import { badRequest } from '../http/errors';
 import { raiseCheckFlag } from '../supervision/flag-store';
+import { currentAdPlan } from '../care/ad-plan';
+import { clinicCareSettings } from '../care/care-settings';
 
 const bp = (s: number | null, d: number | null) => (s === null || d === null ? null : { systolic: s, diastolic: d });
 
@@ -46,7 +48,8 @@ export async function recordCheck(ctx: RequestContext, clientId: string, input: 
   }
   const priors: number[] = await grant.db('checks').whereNotNull('bp_before_systolic').orderBy('taken_at').pluck('bp_before_systolic');
   const baseline = baselineSystolic(client.baseline_systolic, priors);
-  const evaluation = evaluateCheck(input, { injuryLevel: client.injury_level, adRisk: client.ad_risk, baselineSystolic: baseline.value });
+  const { adAbsoluteSystolic } = await clinicCareSettings(grant.db, client.clinic_id);
+  const evaluation = evaluateCheck(input, { injuryLevel: client.injury_level, adRisk: client.ad_risk, baselineSystolic: baseline.value, absoluteSystolic: adAbsoluteSystolic });
   const stored = { ...evaluation, baseline };
   const [row] = await grant.db<CheckRow>('checks')
     .insert({
@@ -83,8 +86,11 @@ export async function recordCheck(ctx: RequestContext, clientId: string, input: 
       conditions: evaluation.conditions.map((c) => ({ kind: c.kind, severity: c.severity, reason: c.reason })),
       adRiskReason: evaluation.adRiskReason,
       notes: evaluation.notes,
+      baselineMissing: evaluation.baselineMissing,
       baseline,
     },
+    // The rider's own plan goes under the general steps of the safety panel.
+    adPlan: evaluation.showSafetyPanel ? await currentAdPlan(grant.db, client.id) : null,
   };
 }
 

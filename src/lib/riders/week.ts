@@ -38,8 +38,15 @@ export async function riderWeek(ctx: RequestContext, clientId: string, now = new
     peakPower5sW: s.row.peak_power_5s_w,
     distanceM: s.row.distance_m,
   });
+  // The version in effect and the next one: an accepted progression shows here before it starts.
+  const rows = h.prescriptions.map((p) => p.row);
+  const inEffect = [...rows].reverse().find((r) => r.effective_from <= today) ?? null;
+  const coming = rows.find((r) => r.effective_from > today) ?? null;
+  const targetOf = (r: (typeof rows)[number]) => ({ from: r.effective_from, sessionsPerWeek: r.sessions_per_week, minutesPerSession: r.minutes_per_session, resistance: r.resistance === null ? null : Number(r.resistance) });
   return {
     clientId: client.id,
+    target: inEffect ? targetOf(inEffect) : null,
+    nextTarget: coming ? targetOf(coming) : null,
     name: client.display_name,
     timeZone: tz,
     isoWeek: week.isoWeek,

@@ -10,6 +10,10 @@ export const DEFAULT_METRES_PER_REV = 2.0;
 export const PEAK_WINDOW_S = 5;
 /** meanPowerW below this gives no current-per-watt ratio. */
 export const MIN_POWER_FOR_RATIO_W = 0.5;
+/** The endurance ratio compares the first and last this-many seconds of active time… */
+export const ENDURANCE_WINDOW_S = 300;
+/** …of rides with at least this much active time. */
+export const ENDURANCE_MIN_ACTIVE_S = 720;
 
 /** Summary fields in the order PRODUCT.md lists them (the CLI prints them so). */
 export const SUMMARY_FIELDS = [
@@ -27,6 +31,7 @@ export const SUMMARY_FIELDS = [
   'currentPerWattMaPerW',
   'pulseWidthUs',
   'frequencyHz',
+  'enduranceRatioPct',
   'samples',
   'warnings',
 ] as const satisfies readonly (keyof RideSummary)[];
@@ -45,6 +50,7 @@ export const DECIMALS = {
   milliamperesPerWatt: 3,
   microseconds: 1,
   hertz: 1,
+  percent: 1,
 } as const;
 
 // A distance column of astronomically large values can overflow last − first.
@@ -127,6 +133,38 @@ function peakPower(t: Float64Array, power: Float64Array, d: Float64Array, active
     }
   }
   return sum / w;
+}
+
+/**
+ * Time-weighted mean power of one end of the active time: active samples in
+ * time order (or reversed, for the last window), each belonging to the window
+ * while the window's Δ so far is below 300 s. Samples without a power value
+ * count towards the window's time but not the mean, as in every mean.
+ */
+function windowMean(power: Float64Array, d: Float64Array, active: Uint8Array, fromEnd: boolean): number | null {
+  const n = power.length;
+  let span = 0;
+  let sum = 0;
+  let weight = 0;
+  for (let step = 0; step < n; step++) {
+    const k = fromEnd ? n - 1 - step : step;
+    if (active[k] !== 1) continue;
+    if (span >= ENDURANCE_WINDOW_S - TIME_TOLERANCE_S) break;
+    span += d[k];
+    if (power[k] === power[k]) {
+      sum += power[k] * d[k];
+      weight += d[k];
+    }
+  }
+  return weight > 0 ? sum / weight : null;
+}
+
+function enduranceRatio(power: Float64Array, d: Float64Array, active: Uint8Array, activeS: number): number | null {
+  if (activeS < ENDURANCE_MIN_ACTIVE_S - TIME_TOLERANCE_S) return null;
+  const first = windowMean(power, d, active, false);
+  const last = windowMean(power, d, active, true);
+  if (first === null || last === null || first < MIN_POWER_FOR_RATIO_W) return null;
+  return (last / first) * 100;
 }
 
 function work(power: Float64Array, d: Float64Array): number | null {
@@ -214,6 +252,7 @@ export function summarise(series: RideSeries, options: SummariseOptions = {}): R
     currentPerWattMaPerW: roundOrNull(ratio, DECIMALS.milliamperesPerWatt),
     pulseWidthUs: roundOrNull(series.pulseWidthUs ? maskedMedian(series.pulseWidthUs, active) : null, DECIMALS.microseconds),
     frequencyHz: roundOrNull(series.frequencyHz ? maskedMedian(series.frequencyHz, active) : null, DECIMALS.hertz),
+    enduranceRatioPct: roundOrNull(series.powerW ? enduranceRatio(series.powerW, d, active, byPhase.active) : null, DECIMALS.percent),
     samples: n,
     warnings: options.warnings ?? [],
   };

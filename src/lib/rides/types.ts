@@ -41,6 +41,8 @@ export interface RideSummary {
   workKj: number | null;
   meanCadenceRpm: number | null;
   currentPerWattMaPerW: number | null;
+  /** Mean power of the last 300 s of active time as a % of the first 300 s; null under 12 active minutes. */
+  enduranceRatioPct: number | null;
   channels: Partial<Record<ChannelName, ChannelSummary>>;
   pulseWidthUs: number | null;
   frequencyHz: number | null;

@@ -18,6 +18,7 @@ export function summaryOf(row: RideRow): RideSummary {
     channels: row.channels,
     pulseWidthUs: row.pulse_width_us,
     frequencyHz: row.frequency_hz,
+    enduranceRatioPct: row.endurance_ratio_pct ?? null,
     samples: row.samples,
     warnings: row.warnings,
   };

@@ -5,6 +5,7 @@ import { forbidden } from '../http/errors';
 import { compareClientsByUrgency, compareUrgency } from '../flags/urgency';
 import { flagView } from './flags';
 import { overviews } from './overview';
+import { careStatuses } from '../care/care-status';
 
 /**
  * The staff caseload: every client of the caller's clinics with their open
@@ -30,13 +31,15 @@ export async function caseload(ctx: RequestContext, { onlyFlagged }: { onlyFlagg
     })
     .orderBy('display_name');
   const figures = await overviews(s.db, clients, now);
+  // Readiness, "no plan on file" and a missing baseline (issue 12): one small read per table.
+  const care = await careStatuses(s.db, clients, now);
   await s.listed(onlyFlagged ? 'triage.view' : 'caseload.view', clients);
   const rows = clients.map((c) => {
     const own = flags
       .filter((f) => f.client_id === c.id)
       .map(flagView)
       .sort(compareUrgency);
-    return { clientId: c.id, clientName: c.display_name, timeZone: c.time_zone, flags: own, ...figures.get(c.id)! };
+    return { clientId: c.id, clientName: c.display_name, timeZone: c.time_zone, flags: own, ...figures.get(c.id)!, care: care.get(c.id)! };
   });
   return onlyFlagged ? rows.sort(compareClientsByUrgency) : rows;
 }

@@ -56,6 +56,7 @@ export function trendPointsOf(h: ClientHistory) {
       targetS: target ? target.minutesPerSession * 60 : null,
       counted,
       currentPerWattMaPerW: s.currentPerWattMaPerW,
+      enduranceRatioPct: s.row.endurance_ratio_pct ?? null,
     };
   });
 }

@@ -5,6 +5,7 @@ import { filesInFlight } from '../ingest/sweep';
 import { QUEUES, queue, sendJob, workQueue } from '../jobs/queue';
 import { evaluateClientFlags } from './flag-store';
 import { clientsWithNewDay } from './new-day';
+import { refreshProgression } from '../care/progression-service';
 
 
 // Files arrive in batches (a fortnight at once, in any order). Evaluating a
@@ -20,6 +21,8 @@ export async function registerFlagJobs(): Promise<void> {
   await workQueue<{ clientId: string }>(QUEUES.evaluateFlags, async ({ clientId }) => {
     if (await filesInFlight(workerDb(), clientId)) return scheduleFlagEvaluation(clientId);
     await evaluateClientFlags(workerDb(), clientId);
+    // Progression is judged on the same occasions, after the flags (an open urgent flag holds it back).
+    await refreshProgression(workerDb(), clientId);
   });
 
   // Every hour, the clients for whom it has just turned midnight: a finished

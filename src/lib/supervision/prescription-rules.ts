@@ -6,7 +6,8 @@
 import { z } from 'zod';
 import type { PrescriptionRow } from '../db/tables';
 import { NAMED_CHANNELS, NUMBERED_CHANNELS } from '../rides/types';
-import { calendarDate, paragraph } from '../validation/fields';
+import { calendarDate, line, paragraph } from '../validation/fields';
+import { progressionPlanSchema } from '../care/progression';
 
 const SOURCE = 'the range reported for FES cycling programmes (J NeuroEng Rehabil 2021 review)';
 const within = (label: string, min: number, max: number, unit: string, source = SOURCE) =>
@@ -44,6 +45,10 @@ export const prescriptionInputSchema = z
     channels: z.record(z.enum([...NAMED_CHANNELS, ...NUMBERED_CHANNELS]), channelLimits).optional(),
     notes: paragraph(z.string().trim().max(2000, 'Notes: at most 2000 characters.'), 'Notes').optional(),
     effectiveFrom: calendarDate('Effective date'),
+    /** How the program grows when the rider is ready; null or absent: it does not. */
+    progression: progressionPlanSchema.nullish(),
+    /** Why the version is saved for a client who is not cleared (asked for when they are not). */
+    notClearedReason: line(z.string().trim().min(1, 'Reason: say why the program goes on without a current clearance.').max(500, 'Reason: at most 500 characters.'), 'Reason').optional(),
   })
   .strict()
   .refine((p) => p.warmupMinutes === undefined || p.warmupMinutes < p.minutesPerSession, {
@@ -52,7 +57,7 @@ export const prescriptionInputSchema = z
   });
 export type PrescriptionInput = z.infer<typeof prescriptionInputSchema>;
 
-type Stored = Pick<PrescriptionRow, 'sessions_per_week' | 'minutes_per_session' | 'warmup_minutes' | 'target_cadence_rpm' | 'cadence_tolerance_rpm' | 'resistance' | 'channels' | 'notes'>;
+type Stored = Pick<PrescriptionRow, 'sessions_per_week' | 'minutes_per_session' | 'warmup_minutes' | 'target_cadence_rpm' | 'cadence_tolerance_rpm' | 'resistance' | 'channels' | 'notes' | 'progression'>;
 
 const channelKey = (channels: Record<string, Partial<Record<string, number>>> | undefined) =>
   JSON.stringify(
@@ -60,6 +65,8 @@ const channelKey = (channels: Record<string, Partial<Record<string, number>>> | 
       .map(([name, l]) => [name, ['maxCurrentMa', 'pulseWidthUs', 'frequencyHz'].map((f) => l[f] ?? null)])
       .sort(([a], [b]) => String(a).localeCompare(String(b))),
   );
+
+const progressionKey = (p: PrescriptionInput['progression']) => (p ? `${p.kind}:${p.step}:${p.upTo}` : '');
 
 /** True when a new version would hold exactly what `stored` holds: a version that changes nothing is refused. */
 export function sameAsStored(input: PrescriptionInput, stored: Stored): boolean {
@@ -72,6 +79,7 @@ export function sameAsStored(input: PrescriptionInput, stored: Stored): boolean 
     (input.cadenceToleranceRpm ?? null) === num(stored.cadence_tolerance_rpm) &&
     (input.resistance ?? null) === num(stored.resistance) &&
     channelKey(input.channels) === channelKey(stored.channels as Record<string, Partial<Record<string, number>>>) &&
-    (input.notes ?? '') === (stored.notes ?? '')
+    (input.notes ?? '') === (stored.notes ?? '') &&
+    progressionKey(input.progression) === progressionKey(stored.progression as PrescriptionInput['progression'])
   );
 }

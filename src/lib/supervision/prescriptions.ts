@@ -5,6 +5,11 @@ import { badRequest, conflict } from '../http/errors';
 import { localDate } from '../time/local-date';
 import { scheduleFlagEvaluation } from './flag-jobs';
 import { sameAsStored, type PrescriptionInput } from './prescription-rules';
+import { careStatusOf } from '../care/care-status';
+import type { ProgressionPlan } from '../care/progression';
+import { isCleared, READINESS_LABELS } from '../care/readiness';
+import { HttpError } from '../http/errors';
+import { NOT_CLEARED_CAUTION } from '../checks/safety-text';
 
 export function prescriptionView(row: PrescriptionRow & { created_by_name?: string }) {
   return {
@@ -19,6 +24,8 @@ export function prescriptionView(row: PrescriptionRow & { created_by_name?: stri
     resistance: row.resistance,
     channels: row.channels,
     notes: row.notes,
+    progression: (row.progression ?? null) as ProgressionPlan | null,
+    notClearedReason: row.not_cleared_reason ?? null,
     createdBy: { userId: row.created_by, name: row.created_by_name ?? null },
     createdAt: row.created_at.toISOString(),
   };
@@ -48,9 +55,23 @@ export async function readPrescription(ctx: RequestContext, clientId: string, to
   };
 }
 
-/** Saving always creates a new version; earlier versions stay as they were. */
-export async function savePrescription(ctx: RequestContext, clientId: string, input: PrescriptionInput) {
+/**
+ * Saving always creates a new version; earlier versions stay as they were.
+ * For a client who is not cleared (screening and a current clearance) the
+ * caller must confirm with a reason, which is kept with the version and in
+ * the audit log; without one the answer is 409 `not_cleared`.
+ */
+export async function savePrescription(ctx: RequestContext, clientId: string, input: PrescriptionInput, audited: Record<string, unknown> = {}) {
   const client = await scope(ctx).client(clientId, 'manage', 'prescription.change');
+  const { readiness } = await careStatusOf(client.db, client.row);
+  const cleared = isCleared(readiness);
+  if (!cleared && !input.notClearedReason) {
+    throw new HttpError(409, 'not_cleared', `${READINESS_LABELS[readiness]}. ${NOT_CLEARED_CAUTION}`, {
+      readiness,
+      fields: [{ path: 'notClearedReason', message: 'Reason: say why the program goes on without a current clearance.' }],
+    });
+  }
+  const reason = cleared ? null : input.notClearedReason!;
   const row = await client.transaction(async (tx) => {
     await tx.lock(`prescription:${client.id}`);
     const latest: PrescriptionRow | undefined = await tx.db<PrescriptionRow>('prescriptions').orderBy('version', 'desc').first();
@@ -74,10 +95,12 @@ export async function savePrescription(ctx: RequestContext, clientId: string, in
         resistance: input.resistance ?? null,
         channels: JSON.stringify(input.channels ?? {}) as never,
         notes: input.notes ?? null,
+        progression: input.progression ? (JSON.stringify(input.progression) as never) : null,
+        not_cleared_reason: reason,
         created_by: ctx.viewer.userId,
       })
       .returning('*');
-    await tx.audit({ action: 'prescription.version_created', recordType: 'prescription', recordId: created.id, detail: { version: created.version } });
+    await tx.audit({ action: 'prescription.version_created', recordType: 'prescription', recordId: created.id, detail: { version: created.version, ...(reason ? { readiness, notClearedReason: reason } : {}), ...audited } });
     return created;
   });
   await scheduleFlagEvaluation(client.id, 0);

@@ -6,12 +6,13 @@
 import type { AstroGlobal } from 'astro';
 import { canManageClient } from '../auth/access';
 import { signedIn } from '../auth/context';
+import { readCareOf } from '../care/care-status';
 import { readClient } from '../clients/read';
 import { HttpError } from '../http/errors';
 import { localDate } from '../time/local-date';
 import { pageLocale } from './locale';
 
-export type ClientView = 'overview' | 'sessions' | 'prescription' | 'pauses' | 'checks' | 'flags' | 'notes' | 'details';
+export type ClientView = 'overview' | 'sessions' | 'prescription' | 'pauses' | 'checks' | 'care' | 'flags' | 'notes' | 'details';
 
 export interface ClientViewLink {
   view: ClientView;
@@ -25,6 +26,7 @@ const VIEWS: { view: ClientView; label: string; path: string; staffOnly: boolean
   { view: 'prescription', label: 'Prescription', path: '/prescription', staffOnly: false },
   { view: 'pauses', label: 'Pauses', path: '/pauses', staffOnly: false },
   { view: 'checks', label: 'Checks', path: '/checks', staffOnly: false },
+  { view: 'care', label: 'Screening and clearance', path: '/care', staffOnly: true },
   { view: 'flags', label: 'Flags', path: '/flags', staffOnly: true },
   { view: 'notes', label: 'Notes', path: '/notes', staffOnly: true },
   { view: 'details', label: 'Details and invitations', path: '/details', staffOnly: true },
@@ -43,11 +45,14 @@ export async function clientPage(astro: AstroGlobal, view: ClientView) {
   const found = client !== null && (manage || !VIEWS.find((v) => v.view === view)!.staffOnly);
   if (!found) astro.response.status = 404;
   const { locale } = await pageLocale(ctx, client?.id);
+  // Readiness and the dysreflexia plan's presence, in the record's band for the clinic's staff.
+  const care = found && manage ? await readCareOf(ctx, client!.id) : null;
   const links: ClientViewLink[] = client ? VIEWS.filter((v) => manage || !v.staffOnly).map((v) => ({ view: v.view, label: v.label, href: `/clients/${client!.id}${v.path}` })) : [];
   return {
     ctx,
     client: found ? client : null,
     manage,
+    care,
     locale,
     links,
     today: client ? localDate(new Date(), client.timeZone) : '',

@@ -35,6 +35,7 @@ export function navFor(viewer: Viewer, options: { mailbox: boolean }): NavSectio
         { href: '/clients', label: viewer.carerOf.length > 1 ? 'My clients' : 'My client' },
         { href: '/checks', label: 'Checks' },
         { href: '/my-prescription', label: 'Prescriptions' },
+        { href: '/messages', label: 'Messages' },
       ],
     });
   }
@@ -47,6 +48,7 @@ export function navFor(viewer: Viewer, options: { mailbox: boolean }): NavSectio
         { href: '/goal', label: 'Distance goal' },
         { href: '/checks', label: 'How a ride went' },
         { href: '/my-prescription', label: 'My prescription' },
+        { href: '/messages', label: 'Messages' },
         { href: '/upload', label: 'Upload rides' },
       ],
     });

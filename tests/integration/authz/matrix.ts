@@ -19,6 +19,35 @@ async function profileOf(w: World): Promise<string> {
     .returning('id');
   return row.id;
 }
+/** A small PDF's first bytes and some more: enough for the byte check. */
+const pdfBytes = () => new TextEncoder().encode(`%PDF-1.4\n% matrix ${randomUUID()}\n%%EOF\n`);
+function clearanceForm(): FormData {
+  const form = new FormData();
+  form.set('clearedOn', '2026-01-10');
+  form.set('clinician', 'Dr Matrix');
+  form.append('document', new Blob([pdfBytes()], { type: 'application/pdf' }), 'clearance.pdf');
+  return form;
+}
+/** One clearance of the world's client, uploaded by its therapist; made once per run. */
+let clearance: Promise<string> | null = null;
+function therapistClearance(w: World) {
+  clearance ??= w.as('therapist').then(async (t) => {
+    const res = await t.request('POST', `/api/clients/${w.clientId}/clearances`, clearanceForm());
+    if (res.status !== 201) throw new Error(`matrix clearance was ${res.status}: ${await res.text()}`);
+    return (await res.json()).id as string;
+  });
+  return clearance;
+}
+/** An open progression proposal of the world's client, one per call (a decision closes it). */
+async function openProposal(w: World): Promise<string> {
+  const rx = await w.knex('prescriptions').where({ client_id: w.clientId }).orderBy('version', 'desc').first('id');
+  const prescriptionId = rx?.id ?? (await w.knex('prescriptions').insert({ client_id: w.clientId, version: 1, effective_from: '2026-01-05', sessions_per_week: 3, minutes_per_session: 30, created_by: w.users.therapist.id }).returning('id'))[0].id;
+  const [row] = await w.knex('progression_proposals')
+    .insert({ clinic_id: w.clinicId, client_id: w.clientId, prescription_id: prescriptionId, iso_week: `m-${randomUUID()}`, proposed: JSON.stringify({ minutesPerSession: 35 }), evidence: '{}' })
+    .returning('id');
+  return row.id;
+}
+const planBody = { restingSystolic: 104, restingDiastolic: 66, signs: 'Headache, flushing', firstSteps: 'Stop, sit up, check the bladder', physicianPrescribed: null, whoToCall: 'The carer, then the clinic', contacts: [{ name: 'Cara Carer', relationship: 'partner', phone: '+44 7700 900123' }] };
 const profileBody = { name: 'Matrix rig', columns: { Zeit: { field: 'time' }, Leistung: { field: 'power', unit: 'W' } } };
 const read = (ok: number): Record<Role, number> => ({ anonymous: 401, client: ok, carer: ok, therapist: ok, admin: ok, otherTherapist: 404, otherAdmin: 404 });
 const manage = (ok: number): Record<Role, number> => ({ anonymous: 401, client: 403, carer: 403, therapist: ok, admin: ok, otherTherapist: 404, otherAdmin: 404 });
@@ -117,8 +146,8 @@ export const MATRIX: Record<string, MatrixEntry> = {
   },
   'GET /api/clients/[id]/prescription': { request: (w) => ({ path: `/api/clients/${w.clientId}/prescription` }), expect: read(200) },
   'PUT /api/clients/[id]/prescription': {
-    // A version that changes nothing is refused (409), so each caller saves a different one.
-    request: (w, role) => ({ path: `/api/clients/${w.clientId}/prescription`, body: { sessionsPerWeek: 3, minutesPerSession: 20 + ROLES.indexOf(role), effectiveFrom: '2026-06-01' } }),
+    // A version that changes nothing is refused (409), so each caller saves a different one; the world's client is not cleared, hence the reason.
+    request: (w, role) => ({ path: `/api/clients/${w.clientId}/prescription`, body: { sessionsPerWeek: 3, minutesPerSession: 20 + ROLES.indexOf(role), effectiveFrom: '2026-06-01', notClearedReason: 'Screening booked' } }),
     expect: manage(201),
   },
   'GET /api/clients/[id]/pauses': { request: (w) => ({ path: `/api/clients/${w.clientId}/pauses` }), expect: read(200) },
@@ -183,4 +212,23 @@ export const MATRIX: Record<string, MatrixEntry> = {
   'GET /api/monitoring.csv': { request: () => ({ path: '/api/monitoring.csv?by=client' }), expect: staff(200) },
   'GET /api/clinic/energy': { request: () => ({ path: '/api/clinic/energy' }), expect: staff(200) },
   'PUT /api/clinic/energy': { request: () => ({ path: '/api/clinic/energy', body: { efficiencyPct: null } }), expect: adminOnly(200) },
+
+  // Before and between rides: screening, clearance, the rider's plan, progression, messages (issue 12).
+  'GET /api/clients/[id]/screening': { request: (w) => ({ path: `/api/clients/${w.clientId}/screening` }), expect: manage(200) },
+  'PUT /api/clients/[id]/screening': {
+    request: (w) => ({ path: `/api/clients/${w.clientId}/screening`, body: { assessedOn: '2026-01-10', items: [{ id: 'epilepsy', status: 'no_concern', note: null }] } }),
+    expect: manage(200),
+  },
+  'GET /api/clients/[id]/clearances': { request: (w) => ({ path: `/api/clients/${w.clientId}/clearances` }), expect: manage(200) },
+  'POST /api/clients/[id]/clearances': { request: (w) => ({ path: `/api/clients/${w.clientId}/clearances`, body: clearanceForm() }), expect: manage(201) },
+  'GET /api/clients/[id]/clearances/[clearanceId]': { request: async (w) => ({ path: `/api/clients/${w.clientId}/clearances/${await therapistClearance(w)}` }), expect: manage(200) },
+  'GET /api/clients/[id]/ad-plan': { request: (w) => ({ path: `/api/clients/${w.clientId}/ad-plan` }), expect: read(200) },
+  'PUT /api/clients/[id]/ad-plan': { request: (w) => ({ path: `/api/clients/${w.clientId}/ad-plan`, body: planBody }), expect: manage(201) },
+  'GET /api/clinic/care': { request: () => ({ path: '/api/clinic/care' }), expect: staff(200) },
+  'PUT /api/clinic/care': { request: () => ({ path: '/api/clinic/care', body: { clearanceReviewMonths: null, adAbsoluteSystolic: null } }), expect: adminOnly(200) },
+  'GET /api/progressions': { request: () => ({ path: '/api/progressions' }), expect: staff(200) },
+  'POST /api/progressions/[id]': { request: async (w) => ({ path: `/api/progressions/${await openProposal(w)}`, body: { action: 'dismiss' } }), expect: manage(200) },
+  'GET /api/clients/[id]/progressions': { request: (w) => ({ path: `/api/clients/${w.clientId}/progressions` }), expect: manage(200) },
+  'GET /api/clients/[id]/messages': { request: (w) => ({ path: `/api/clients/${w.clientId}/messages` }), expect: read(200) },
+  'POST /api/clients/[id]/messages': { request: (w) => ({ path: `/api/clients/${w.clientId}/messages`, body: { body: 'How did the longer rides feel?' } }), expect: read(201) },
 };

@@ -67,7 +67,8 @@ describe('symptoms of autonomic dysreflexia', () => {
   });
 
   it('without a baseline are still judged, and the reason says readings were not compared', () => {
-    const r = evaluateCheck(check({ bpDuring: bp(190, 110), adSymptoms: ['blurred_vision'] }), {
+    // 140 is below the absolute level for a client at risk (tested below), so only the symptom speaks.
+    const r = evaluateCheck(check({ bpDuring: bp(140, 90), adSymptoms: ['blurred_vision'] }), {
       ...atRisk,
       baselineSystolic: null,
     });
@@ -83,8 +84,8 @@ describe('symptoms of autonomic dysreflexia', () => {
     expect(rises[0].reason).toContain('(slow pulse) and systolic pressure reached 150 mmHg during the ride');
   });
 
-  it('no baseline and no symptoms: nothing raised, a note says why', () => {
-    const r = evaluateCheck(check({ bpDuring: bp(190, 110) }), { ...atRisk, baselineSystolic: null });
+  it('no baseline and no symptoms, a client not at risk: nothing raised, a note says why', () => {
+    const r = evaluateCheck(check({ bpDuring: bp(190, 110) }), { ...notAtRisk, baselineSystolic: null });
     expect(r.conditions).toEqual([]);
     expect(r.showSafetyPanel).toBe(false);
     expect(r.notes[0]).toContain('No baseline systolic pressure');
@@ -167,4 +168,58 @@ it('raises several conditions from one check', () => {
     atRisk,
   );
   expect(r.conditions.map((c) => c.kind)).toEqual(['bp_rise', 'bp_drop', 'skin_concern']);
+});
+
+describe('an absolute level without (or whatever) the baseline', () => {
+  // from memory: the Consortium for Spinal Cord Medicine guideline on acute
+  // management of autonomic dysreflexia has adults with a systolic of 150 mmHg
+  // or more considered for drug treatment; PRODUCT.md takes it as the level
+  // for a client at risk without a known baseline.
+  const LEVEL = 150;
+  const noBaseline: ClientRiskProfile = { injuryLevel: 'T4', adRisk: 'at_risk', baselineSystolic: null };
+
+  it('the first check of 172 mmHg after the ride, no baseline: urgent bp_rise and the safety panel', () => {
+    const r = evaluateCheck(check({ bpAfter: bp(172, 95), bpAfterMinutes: 5 }), noBaseline);
+    expect(r.showSafetyPanel).toBe(true);
+    expect(r.baselineMissing).toBe(true);
+    expect(r.conditions).toHaveLength(1);
+    expect(r.conditions[0].kind).toBe('bp_rise');
+    expect(r.conditions[0].severity).toBe('urgent');
+    expect(r.conditions[0].reason).toBe(
+      "Systolic pressure reached 172 mmHg 5 minutes after the ride, at or above the clinic's level of 150 mmHg for a client at risk of autonomic dysreflexia. No baseline systolic pressure is set.",
+    );
+  });
+
+  it('raises at 150 and 151, not at 149', () => {
+    expect(kinds(check({ bpDuring: bp(LEVEL, 90) }), noBaseline)).toEqual(['bp_rise']);
+    expect(kinds(check({ bpDuring: bp(LEVEL + 1, 90) }), noBaseline)).toEqual(['bp_rise']);
+    const below = evaluateCheck(check({ bpDuring: bp(LEVEL - 1, 90) }), noBaseline);
+    expect(below.conditions).toEqual([]);
+    expect(below.showSafetyPanel).toBe(false);
+    expect(below.baselineMissing).toBe(true);
+  });
+
+  it('applies whatever the baseline: 150 against a baseline of 140 (only 10 above it)', () => {
+    const r = evaluateCheck(check({ bpBefore: bp(150, 90) }), { ...noBaseline, baselineSystolic: 140 });
+    expect(r.conditions.map((c) => [c.kind, c.severity])).toEqual([['bp_rise', 'urgent']]);
+    expect(r.showSafetyPanel).toBe(true);
+    expect(r.baselineMissing).toBe(false);
+  });
+
+  it('follows the clinic setting', () => {
+    const clinic = { ...noBaseline, absoluteSystolic: 140 };
+    expect(kinds(check({ bpDuring: bp(140, 90) }), clinic)).toEqual(['bp_rise']);
+    expect(kinds(check({ bpDuring: bp(139, 90) }), clinic)).toEqual([]);
+  });
+
+  it('does not apply to a client not at risk, who is asked for a baseline instead', () => {
+    const r = evaluateCheck(check({ bpDuring: bp(172, 95) }), { injuryLevel: 'L1', adRisk: 'not_at_risk', baselineSystolic: null });
+    expect(r.conditions).toEqual([]);
+    expect(r.showSafetyPanel).toBe(false);
+    expect(r.baselineMissing).toBe(true);
+  });
+
+  it('asks for no baseline when no pressure was taken', () => {
+    expect(evaluateCheck(check({ adSymptoms: [] }), noBaseline).baselineMissing).toBe(false);
+  });
 });

@@ -13,6 +13,7 @@ const session = (startedAt: string, meanPowerW: number, activeS: number, workKj:
   workKj,
   distanceM: 1000,
   currentPerWattMaPerW: null,
+  enduranceRatioPct: null,
   counted: true,
   baselineW: null,
 });
@@ -44,6 +45,17 @@ describe('report figures', () => {
     expect(f.weeks[4].meanPowerW).toBe(34);
     expect(f.weeks[3].meanPowerW).toBeNull();
     expect(f.weeks.map((w) => w.finished)).toEqual([true, true, true, true, true]);
+  });
+
+  it('compares power held to the end over the first and last sessions that have it', () => {
+    // Sessions with a ratio: 80, 84, (none), 90, 94 in the period. Four of them, so two at each end:
+    // first (80 + 84) / 2 = 82 %, last (90 + 94) / 2 = 92 %.
+    const ratios = [null, 80, 84, null, 90, 94];
+    const f = figures(sessions.map((x, i) => ({ ...x, enduranceRatioPct: ratios[i] })), weeks);
+    expect(f.sessions.enduranceHalf).toBe(2);
+    expect(f.sessions.firstEndurance).toBe(82);
+    expect(f.sessions.lastEndurance).toBe(92);
+    expect(f.series.endurance.map((p) => p.y)).toEqual([80, 84, 90, 94]);
   });
 
   it('compares the first and last finished weeks that asked for sessions, never overlapping', () => {

@@ -16,7 +16,7 @@ function cli(...args: string[]) {
 // The field order of PRODUCT.md's metric table.
 const FIELDS = [
   'startedAt', 'durationS', 'activeS', 'passiveS', 'cooldownS', 'meanPowerW', 'meanCadenceRpm', 'peakPower5sW', 'workKj',
-  'distanceM', 'channels', 'currentPerWattMaPerW', 'pulseWidthUs', 'frequencyHz', 'samples', 'warnings',
+  'distanceM', 'channels', 'currentPerWattMaPerW', 'pulseWidthUs', 'frequencyHz', 'enduranceRatioPct', 'samples', 'warnings',
 ];
 
 describe('ride-summary CLI', { timeout: 60_000 }, () => {

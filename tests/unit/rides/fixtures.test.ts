@@ -18,7 +18,7 @@ const json = (file: string) => JSON.parse(readFileSync(DIR + file, 'utf8'));
 const optionsOf = (name: string): ParseOptions => (existsSync(`${DIR}${name}.options.json`) ? json(`${name}.options.json`) : {});
 
 // Both sides round as DEVELOPERS.md states (half away from zero; seconds, W,
-// rpm, m, mA, µs, Hz to 0.1; kJ and mA/W to 0.001), so the numbers must be
+// rpm, m, mA, µs, Hz and % to 0.1; kJ and mA/W to 0.001), so the numbers must be
 // equal, not merely close: a change of the rounding rule or of a field's
 // decimals shows here.
 const NUMBERS = [
@@ -34,6 +34,7 @@ const NUMBERS = [
   'currentPerWattMaPerW',
   'pulseWidthUs',
   'frequencyHz',
+  'enduranceRatioPct',
 ] as const;
 
 describe('ride-file fixtures against independently computed expectations', () => {

@@ -74,3 +74,33 @@ describe('summarise', () => {
     expect([roundTo(2.25, 1), roundTo(-2.25, 1), roundTo(-0.01, 1), roundTo(0.0625, 3)]).toEqual([2.3, -2.3, 0, 0.063]);
   });
 });
+
+describe('enduranceRatioPct', () => {
+  const ramp = (n: number, at: (i: number) => number) => f64(Array.from({ length: n }, (_, i) => at(i)));
+  it('is the last 300 s of active time against the first, time-weighted', () => {
+    // 1 Hz, 720 active samples (Δ = 1 each, 720 s): first 300 at 20 W, last 300 at 15 W → 75 %.
+    const t = ramp(720, (i) => i);
+    const p = ramp(720, (i) => (i < 300 ? 20 : i >= 420 ? 15 : 18));
+    expect(summarise(series([...t], all(720, 'active'), { powerW: p })).enduranceRatioPct).toBe(75);
+  });
+  it('is null under 720 s of active time', () => {
+    const t = ramp(719, (i) => i);
+    expect(summarise(series([...t], all(719, 'active'), { powerW: ramp(719, () => 20) })).enduranceRatioPct).toBeNull();
+  });
+  it('counts active time, not clock time: a stop of 30 s inside the last window adds nothing', () => {
+    // 100 passive samples, then 800 active at 1 Hz where the last 300 are 10 W and the rest 25 W.
+    const n = 900;
+    const t = ramp(n, (i) => i + (i >= 700 ? 30 : 0));
+    const phase: Phase[] = Array.from({ length: n }, (_, i) => (i < 100 ? 'passive' : 'active'));
+    // Sample 699 is followed by a 31 s step: Δ = 0 (a pause). The last window then reaches back from sample 899
+    // through 700 (200 s) and over 699 (0 s) to 599: power 10 W from sample 599 on.
+    const p = ramp(n, (i) => (i >= 599 ? 10 : 25));
+    const s = summarise(series([...t], phase, { powerW: p }));
+    expect(s.activeS).toBe(799);
+    expect(s.enduranceRatioPct).toBe(40);
+  });
+  it('is null when the first window has no power to speak of', () => {
+    const t = ramp(800, (i) => i);
+    expect(summarise(series([...t], all(800, 'active'), { powerW: ramp(800, (i) => (i < 300 ? 0.4 : 20)) })).enduranceRatioPct).toBeNull();
+  });
+});

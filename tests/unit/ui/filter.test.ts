@@ -22,7 +22,7 @@ function flag(kind: FlagKind, severity: FlagSeverity): FlagItem {
 }
 
 function row(clientName: string, flags: FlagItem[]): ClientRow {
-  return { clientId: clientName.toLowerCase().replace(/\s+/g, '-'), clientName, timeZone: 'Europe/London', flags, lastSessionAt: null, adherence4wPct: null, streakWeeks: 0, powerTrendWPerWeek: null };
+  return { clientId: clientName.toLowerCase().replace(/\s+/g, '-'), clientName, timeZone: 'Europe/London', flags, lastSessionAt: null, adherence4wPct: null, streakWeeks: 0, powerTrendWPerWeek: null, care: { readiness: 'cleared', clearanceReviewOn: null, atRisk: false, noPlanOnFile: false, baselineNeeded: false } };
 }
 
 const rows: ClientRow[] = [
