@@ -146,24 +146,21 @@ function clientPageCalls(id) {
   const c = `/api/clients/${id}`;
   // ClientOverview: prescription + adherence; FlagHistory; ClientCharts: trends + adherence;
   // SessionsTable; Prescription; Pauses; Notes.
-  return [`${c}/prescription`, `${c}/adherence?weeks=12`, `${c}/flags`, `${c}/trends`, `${c}/adherence?weeks=12`, `${c}/sessions?limit=50`, `${c}/prescription`, `${c}/pauses`, `${c}/notes`];
+  return [`${c}/prescription`, `${c}/adherence?weeks=12`, `${c}/flags`, `${c}/trends?weeks=26`, `${c}/adherence?weeks=12`, `${c}/sessions?limit=50`, `${c}/prescription`, `${c}/pauses`, `${c}/notes`];
 }
 
 /** The demo's first rider, or on the scale data the active client with the longest history. */
 async function pickClient(session, databaseUrl) {
-  const { clients } = await session.json('/api/clients');
-  const choose = async (c) => {
-    const { sessions } = await session.json(`/api/clients/${c.id}/sessions?limit=1`);
-    return { id: c.id, name: c.name ?? c.displayName, latestSession: sessions[0]?.id };
-  };
-  if (clients.length < 100) {
-    const jonah = clients.find((c) => (c.name ?? c.displayName) === 'Jonah Pryce') ?? clients[0];
-    return { ...(await choose(jonah)), sessions: await countSessions(session, jonah.id) };
-  }
-  const id = await longestHistory(databaseUrl);
-  const c = clients.find((x) => x.id === id);
-  if (!c) throw new Error('the client with the longest history is not visible to the demo admin');
-  return { ...(await choose(c)), sessions: await countSessions(session, c.id) };
+  const { clients, total } = await session.json('/api/clients?q=Jonah%20Pryce');
+  const id = total > 0 && clients[0].name === 'Jonah Pryce' && !(await isScale(session)) ? clients[0].id : await longestHistory(databaseUrl);
+  const c = await session.json(`/api/clients/${id}`);
+  const { sessions } = await session.json(`/api/clients/${id}/sessions?limit=1`);
+  return { id, name: c.name, latestSession: sessions[0]?.id, sessions: await countSessions(session, id) };
+}
+
+/** The scale data holds a thousand clients or more; the demo ten. */
+async function isScale(session) {
+  return (await session.json('/api/clients?limit=1')).total >= 100;
 }
 
 /** The active client of the largest clinic with the most sessions: the heaviest client page. */

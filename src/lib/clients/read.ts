@@ -1,11 +1,36 @@
+import { z } from 'zod';
 import { accessClient, visibleClients } from '../auth/access';
 import { auditListed, type RequestContext } from '../auth/context';
+import { line } from '../validation/fields';
 import { clientView } from './view';
 
-export async function listVisibleClients(ctx: RequestContext) {
-  const rows = await visibleClients(ctx.knex, ctx.viewer).orderBy('display_name');
+/** A page of the clients the caller may see, by name; `q`: words the name must contain. */
+export const clientListQuerySchema = z
+  .object({
+    limit: z.coerce.number({ message: 'limit: a whole number from 1 to 200.' }).int('limit: a whole number from 1 to 200.').min(1).max(200).default(50),
+    offset: z.coerce.number({ message: 'offset: a whole number from 0.' }).int('offset: a whole number from 0.').min(0).max(1_000_000).default(0),
+    q: line(z.string().max(100, 'Search: at most 100 characters.'), 'Search').default(''),
+    /** 1: only the clients the caller cares for (a carer who is also staff gets their own, not the clinic's). */
+    linked: z.enum(['0', '1']).default('0'),
+  })
+  .strict();
+export type ClientListQuery = z.infer<typeof clientListQuerySchema>;
+
+const likeWord = (w: string) => `%${w.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+
+export async function listVisibleClients(ctx: RequestContext, query: ClientListQuery = clientListQuerySchema.parse({})) {
+  const words = query.q.trim().split(/\s+/).filter(Boolean);
+  const matching = () =>
+    visibleClients(ctx.knex, ctx.viewer).modify((q) => {
+      for (const w of words) q.whereILike('display_name', likeWord(w));
+      if (query.linked === '1') q.whereIn('id', ctx.viewer.carerOf);
+    });
+  const [{ count }] = await matching().count({ count: '*' });
+  const rows = await matching().orderBy([{ column: 'display_name' }, { column: 'id' }]).offset(query.offset).limit(query.limit);
   await auditListed(ctx, 'clients.list', rows);
-  return rows.map(clientView);
+  const total = Number(count);
+  const next = query.offset + rows.length;
+  return { clients: rows.map(clientView), total, offset: query.offset, limit: query.limit, nextOffset: next < total ? next : null };
 }
 
 export async function readClient(ctx: RequestContext, clientId: string) {

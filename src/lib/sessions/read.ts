@@ -27,6 +27,14 @@ export async function listSessions(ctx: RequestContext, clientId: string, query:
 
 export const sessionQuerySchema = z.object({ points: z.coerce.number().int().min(10).max(20_000).optional() });
 
+/** A session without its series, and whether it has one (the session page; its charts fetch the series themselves). */
+export async function readSessionHead(ctx: RequestContext, id: string) {
+  const found = z.string().uuid().safeParse(id).success ? await ctx.knex<RideRow>('rides').where({ id }).first() : undefined;
+  const { row } = await accessClientRecord(ctx, found, { what: 'That session', type: 'session', id }, 'read', 'session.view', { sessionId: id });
+  const stored = await ctx.knex('ride_series').where({ ride_id: id }).first(ctx.knex.raw('1 AS present'));
+  return { ...sessionListItem(row), hasSeries: stored !== undefined };
+}
+
 export async function readSession(ctx: RequestContext, id: string, points: number | null) {
   const found = z.string().uuid().safeParse(id).success ? await ctx.knex<RideRow>('rides').where({ id }).first() : undefined;
   const { row } = await accessClientRecord(ctx, found, { what: 'That session', type: 'session', id }, 'read', 'session.view', { sessionId: id });

@@ -1,17 +1,21 @@
 import { z } from 'zod';
 import { prescriptionTimeline, sessionStatus } from '../adherence';
-import { localDate } from '../time/iso-week';
+import { localDate, isoWeekOf, weeksEndingAt } from '../time/iso-week';
+import { startOfLocalDay } from '../time/local-date';
 import { median } from '../analytics/median';
+import { powerTrendPerWeek, POWER_TREND_WEEKS } from '../analytics/trend';
 import { accessClient } from '../auth/access';
 import type { RequestContext } from '../auth/context';
-import { loadHistory, type ClientHistory } from './history';
+import type { ClientRow, RideRow } from '../db/tables';
+import { adherenceOf } from './adherence-store';
+import { loadHistory, loadProgram, sessionOf, type ClientHistory } from './history';
 import { overviewOf } from './overview';
 
 export const adherenceQuerySchema = z.object({ weeks: z.coerce.number().int().min(1).max(104).default(12) });
 
 export async function clientAdherence(ctx: RequestContext, clientId: string, weeks: number) {
   const client = await accessClient(ctx, clientId, 'read', 'adherence.view');
-  const { adherence } = overviewOf(await loadHistory(ctx.knex, client), new Date(), weeks);
+  const adherence = (await adherenceOf(ctx.knex, [client], new Date(), weeks)).get(client.id)!;
   return {
     weeks: adherence.weeks.map((w) => ({ isoWeek: w.isoWeek, prescribed: w.prescribed, counted: w.counted, short: w.short, met: w.met, paused: w.paused })),
     streakWeeks: adherence.streakWeeks,
@@ -19,29 +23,77 @@ export async function clientAdherence(ctx: RequestContext, clientId: string, wee
   };
 }
 
+export const trendsQuerySchema = z.object({ weeks: z.coerce.number({ message: 'weeks: a whole number from 1 to 520.' }).int().min(1).max(520).optional() });
+
 /**
  * Per-session points for the client page's charts: mean power with the usual
  * level it is judged against (the median of the counted sessions before it,
  * as the power_drop rule takes it) and the review band below it, duration
- * against the prescribed minutes, and current per watt.
+ * against the prescribed minutes, and current per watt. With `weeks`, only
+ * the sessions of the ISO weeks ending with the current one (the page asks
+ * for half a year), read with just enough earlier sessions for the first
+ * point's usual level; without it, the whole history.
  */
-export async function clientTrends(ctx: RequestContext, clientId: string) {
+export async function clientTrends(ctx: RequestContext, clientId: string, weeks?: number) {
   const client = await accessClient(ctx, clientId, 'read', 'trends.view');
-  const h = await loadHistory(ctx.knex, client);
-  const { overview } = overviewOf(h, new Date());
-  return { sessions: trendPointsOf(h), powerTrendWPerWeek: overview.powerTrendWPerWeek, thresholds: h.thresholds };
+  const now = new Date();
+  if (weeks === undefined) {
+    const h = await loadHistory(ctx.knex, client);
+    const { overview } = overviewOf(h, now);
+    return { sessions: trendPointsOf(h), powerTrendWPerWeek: overview.powerTrendWPerWeek, thresholds: h.thresholds };
+  }
+  const program = await loadProgram(ctx.knex, client);
+  const today = localDate(now, client.time_zone);
+  const from = new Date(startOfLocalDay(weeksEndingAt(isoWeekOf(today, client.time_zone), weeks)[0].monday, client.time_zone));
+  const shown = (await ridesOf(ctx, client).where('started_at', '>=', from).orderBy('started_at')).map(sessionOf);
+  const h: ClientHistory = { ...program, sessions: shown };
+  const rule = trendRule(h);
+  // Earlier sessions, newest first, until the usual level of the first point shown is settled.
+  const need = h.thresholds.baselineSessions + 2;
+  const prior: number[] = [];
+  for (let offset = 0; prior.length < need; offset += PRIOR_PAGE) {
+    const page = (await ridesOf(ctx, client).where('started_at', '<', from).orderBy('started_at', 'desc').offset(offset).limit(PRIOR_PAGE)).map(sessionOf);
+    for (const s of page) if (prior.length < need && rule.eligible(s)) prior.unshift(s.meanPowerW!);
+    if (page.length < PRIOR_PAGE) break;
+  }
+  const trendFrom = new Date(now.getTime() - POWER_TREND_WEEKS * 7 * 86_400_000);
+  const trendSessions = trendFrom >= from ? shown : (await ridesOf(ctx, client).where('started_at', '>', trendFrom).orderBy('started_at')).map(sessionOf);
+  const trend = powerTrendPerWeek(trendSessions, now.toISOString());
+  return { sessions: trendPointsOf(h, prior), powerTrendWPerWeek: trend === null ? null : Math.round(trend * 100) / 100, thresholds: h.thresholds };
 }
 
-/** The per-session points of `clientTrends`, from a history already loaded (the report reads it once for everything). */
-export function trendPointsOf(h: ClientHistory) {
-  const t = h.thresholds;
+const PRIOR_PAGE = 50;
+
+const ridesOf = (ctx: RequestContext, client: ClientRow) =>
+  ctx.knex<RideRow>('rides')
+    .where({ client_id: client.id })
+    .select('id', 'started_at', 'duration_s', 'active_s', 'mean_power_w', 'current_per_watt_ma_per_w');
+
+/** Which prescription a session was judged against, whether it counted, and whether its power enters the usual level. */
+function trendRule(h: Pick<ClientHistory, 'client' | 'prescriptions' | 'thresholds'>) {
   const timeline = prescriptionTimeline(h.prescriptions);
-  const countedPower: number[] = [];
-  return h.sessions.map((s) => {
+  const t = h.thresholds;
+  const judge = (s: ClientHistory['sessions'][number]) => {
     const target = timeline.versionOn(localDate(s.startedAt, h.client.time_zone));
+    const counted = sessionStatus(s.durationS, target, t.countThresholdPct) === 'counted';
+    return { target, counted };
+  };
+  return { judge, eligible: (s: ClientHistory['sessions'][number]) => judge(s).counted && s.meanPowerW !== null };
+}
+
+/**
+ * The per-session points of `clientTrends`, from a history already loaded
+ * (the report reads it once for everything). `prior`: the mean power of the
+ * eligible sessions before the first one given, oldest first.
+ */
+export function trendPointsOf(h: ClientHistory, prior: number[] = []) {
+  const t = h.thresholds;
+  const rule = trendRule(h);
+  const countedPower: number[] = [...prior];
+  return h.sessions.map((s) => {
+    const { target, counted } = rule.judge(s);
     const window = countedPower.slice(-t.baselineSessions);
     const baseline = window.length >= t.baselineMinSessions ? median(window) : null;
-    const counted = sessionStatus(s.durationS, target, t.countThresholdPct) === 'counted';
     if (counted && s.meanPowerW !== null) countedPower.push(s.meanPowerW);
     return {
       sessionId: s.id,

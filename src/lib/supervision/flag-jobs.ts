@@ -3,6 +3,7 @@ import { db } from '../db/knex';
 import { onRidesChanged } from '../ingest/ride-events';
 import { filesInFlight } from '../ingest/sweep';
 import { QUEUES, queue, sendJob, workQueue } from '../jobs/queue';
+import { refreshAdherence } from './adherence-store';
 import { evaluateClientFlags } from './flag-store';
 import { clientsWithNewDay } from './new-day';
 
@@ -14,12 +15,30 @@ export async function scheduleFlagEvaluation(clientId: string, delayS = config()
   await sendJob(QUEUES.evaluateFlags, { clientId }, { singletonKey: clientId, ...(delayS ? { startAfter: delayS } : {}) });
 }
 
-export async function registerFlagJobs(): Promise<void> {
-  onRidesChanged((_knex, clientId) => scheduleFlagEvaluation(clientId));
+/**
+ * Stores the client's weeks again. A failure only leaves them stale, which
+ * readers notice and answer from the whole history; the minute sweep tries again.
+ */
+export async function refreshStoredWeeks(clientId: string): Promise<void> {
+  try {
+    await refreshAdherence(db(), clientId);
+  } catch (err) {
+    console.error(`storing the weeks of client ${clientId} failed:`, (err as Error).message);
+  }
+}
 
+export async function registerFlagJobs(): Promise<void> {
+  onRidesChanged(async (_knex, clientId) => {
+    await refreshStoredWeeks(clientId);
+    await scheduleFlagEvaluation(clientId);
+  });
+
+  // Also after a change of prescription, pause or threshold, and at the
+  // client's midnight, so the stored weeks reach the current one.
   await workQueue<{ clientId: string }>(QUEUES.evaluateFlags, async ({ clientId }) => {
     if (await filesInFlight(db(), clientId)) return scheduleFlagEvaluation(clientId);
     await evaluateClientFlags(db(), clientId);
+    await refreshStoredWeeks(clientId);
   });
 
   // Every hour, the clients for whom it has just turned midnight: a finished

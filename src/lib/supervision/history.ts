@@ -48,16 +48,34 @@ export async function loadHistories(knex: Knex, clients: ClientRow[]): Promise<C
       row: p,
     })),
     pauses: activePauses(pausesOf.get(client.id) ?? []),
-    sessions: (ridesOf.get(client.id) ?? []).map((r) => ({
-      id: r.id,
-      startedAt: r.started_at.toISOString(),
-      durationS: r.duration_s,
-      meanPowerW: r.mean_power_w,
-      currentPerWattMaPerW: r.current_per_watt_ma_per_w,
-      row: r,
-    })),
+    sessions: (ridesOf.get(client.id) ?? []).map(sessionOf),
     thresholds: thresholds.get(client.clinic_id) ?? flagThresholdsSchema.parse({}),
   }));
+}
+
+/** A stored ride as the adherence and flag rules take it (the row read may hold only some columns). */
+export function sessionOf(r: Pick<RideRow, 'id' | 'started_at' | 'duration_s' | 'mean_power_w' | 'current_per_watt_ma_per_w'> & Partial<RideRow>): ClientHistory['sessions'][number] {
+  return {
+    id: r.id,
+    startedAt: r.started_at.toISOString(),
+    durationS: r.duration_s,
+    meanPowerW: r.mean_power_w,
+    currentPerWattMaPerW: r.current_per_watt_ma_per_w,
+    row: r as RideRow,
+  };
+}
+
+/** A client's program without the sessions: prescriptions, pauses and the clinic's thresholds (a handful of rows). */
+export async function loadProgram(knex: Knex, client: ClientRow): Promise<Omit<ClientHistory, 'sessions'>> {
+  const prescriptions = await knex<PrescriptionRow>('prescriptions').where({ client_id: client.id }).orderBy('version');
+  const pauses = await knex<PauseRow>('pauses').where({ client_id: client.id }).orderBy('starts_on');
+  const clinic = await knex('clinics').where({ id: client.clinic_id }).first('flag_thresholds');
+  return {
+    client,
+    prescriptions: prescriptions.map((p) => ({ effectiveFrom: p.effective_from, sessionsPerWeek: p.sessions_per_week, minutesPerSession: p.minutes_per_session, row: p })),
+    pauses: activePauses(pauses),
+    thresholds: flagThresholdsSchema.parse(clinic?.flag_thresholds ?? {}),
+  };
 }
 
 /** Rows by their client, each list in the order the query gave. */

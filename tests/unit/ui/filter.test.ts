@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { filterRows, flagCounts, isFiltering, NO_FILTER, type RowFilter } from '../../../src/components/triage/filter';
+import { filterRows, flagCounts, isFiltering, NO_FILTER, type RowFilter } from '../../../src/lib/supervision/list-filter';
 import type { ClientRow, FlagItem } from '../../../src/components/triage/types';
 import type { FlagKind, FlagSeverity } from '../../../src/lib/flags/types';
 

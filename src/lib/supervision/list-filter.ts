@@ -1,6 +1,12 @@
-// Narrowing the triage and caseload rows by flag kind, severity and client name.
-import type { FlagKind, FlagSeverity } from '../../lib/flags/types';
-import type { ClientRow } from './types';
+// Narrowing the triage and caseload rows by flag kind, severity and client
+// name: the server does it over the whole list (caseload.ts), the page says
+// what is narrowed. Pure, for both.
+import type { FlagKind, FlagSeverity } from '../flags/types';
+
+interface Row<F extends { kind: FlagKind; severity: FlagSeverity }> {
+  clientName: string;
+  flags: F[];
+}
 
 export interface RowFilter {
   kind: FlagKind | '';
@@ -19,7 +25,7 @@ export function isFiltering(f: RowFilter): boolean {
  * chosen, each row keeps only the flags that match, and rows left without
  * flags drop out.
  */
-export function filterRows(rows: ClientRow[], f: RowFilter): ClientRow[] {
+export function filterRows<F extends { kind: FlagKind; severity: FlagSeverity }, R extends Row<F>>(rows: R[], f: RowFilter): R[] {
   const words = f.search.trim().toLocaleLowerCase().split(/\s+/).filter(Boolean);
   const byFlag = Boolean(f.kind || f.severity);
   return rows.flatMap((row) => {
@@ -32,7 +38,7 @@ export function filterRows(rows: ClientRow[], f: RowFilter): ClientRow[] {
 }
 
 /** How many open flags of each kind and severity the rows hold, for the filter menus. */
-export function flagCounts(rows: ClientRow[]): { kind: Map<FlagKind, number>; severity: Map<FlagSeverity, number> } {
+export function flagCounts(rows: Row<{ kind: FlagKind; severity: FlagSeverity }>[]): { kind: Map<FlagKind, number>; severity: Map<FlagSeverity, number> } {
   const kind = new Map<FlagKind, number>();
   const severity = new Map<FlagSeverity, number>();
   for (const flag of rows.flatMap((r) => r.flags)) {
