@@ -71,7 +71,13 @@ describe('triage and the caseload, a page at a time', () => {
     expect(info.total).toBe(2);
     expect(info.all.clients).toBe(5);
     const missed = (await http.json('GET', '/api/triage?kind=missed_sessions&q=CEDAR')).body as Page;
-    expect(missed.clients.map((r) => r.clientName)).toEqual(['Ben Cedar']);
+    expect(missed.clients.map((r) => [r.clientName, r.flags.map((f) => f.kind)])).toEqual([['Ben Cedar', ['missed_sessions']]]);
+    // Every word of the search, in any order and case, within the name.
+    const words = async (q: string) => ((await http.json('GET', `/api/caseload?q=${encodeURIComponent(q)}`)).body as Page).clients.map((r) => r.clientName);
+    expect(await words('  cedar   BEN ')).toEqual(['Ben Cedar']);
+    expect(await words('e')).toEqual(['Ben Cedar', 'Cleo Dunn', 'Dara Elm', 'Eli Fern', 'Fay Gale']);
+    expect(await words('cedar elm')).toEqual([]);
+    expect(await words('%')).toEqual([]);
 
     const byName = (await http.json('GET', '/api/caseload?limit=4')).body as Page;
     expect(byName.clients.map((r) => r.clientName)).toEqual(['Ada Birch', 'Ben Cedar', 'Cleo Dunn', 'Dara Elm']);

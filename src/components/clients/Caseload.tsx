@@ -1,6 +1,6 @@
 import type { SortingState } from '@tanstack/react-table';
 import { useCallback, useState } from 'react';
-import { NO_FILTER, type RowFilter } from '../../lib/supervision/list-filter';
+import { NO_FILTER, type RowFilter } from '../triage/filter';
 import { Button } from '../ui/Button';
 import CautionBanner from '../ui/CautionBanner';
 import { EmptyState } from '../ui/EmptyState';

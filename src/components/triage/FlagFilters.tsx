@@ -1,7 +1,7 @@
 import { FLAG_KINDS, FLAG_SEVERITIES } from '../../lib/flags/types';
 import { SelectField, TextField } from '../ui/Field';
 import { FLAG_KIND_WORDS, FLAG_SEVERITY_WORDS } from '../../lib/flags/words';
-import type { RowFilter } from '../../lib/supervision/list-filter';
+import type { RowFilter } from './filter';
 import type { ListPage } from './types';
 
 /** Search by client name and, when `byFlag`, menus for flag kind and severity with their counts over the whole list. */

@@ -1,6 +1,6 @@
 import type { SortingState } from '@tanstack/react-table';
 import { useCallback, useMemo, useRef, useState } from 'react';
-import { isFiltering, NO_FILTER, type RowFilter } from '../../lib/supervision/list-filter';
+import { isFiltering, NO_FILTER, type RowFilter } from './filter';
 import { Button } from '../ui/Button';
 import { EmptyState } from '../ui/EmptyState';
 import { Loaded } from '../ui/Loading';

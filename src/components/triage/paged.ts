@@ -4,7 +4,7 @@
 import type { SortingState } from '@tanstack/react-table';
 import { useCallback, useEffect, useRef, useState } from 'react';
 import { api, type ApiError, type Loadable } from '../api';
-import type { RowFilter } from '../../lib/supervision/list-filter';
+import type { RowFilter } from './filter';
 import type { ClientRow, ListPage } from './types';
 
 export const PAGE_SIZE = 50;

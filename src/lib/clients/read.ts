@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { accessClient, visibleClients } from '../auth/access';
 import { auditListed, type RequestContext } from '../auth/context';
+import { byNameSql, whereNameHasWords } from '../db/name-search';
 import { line } from '../validation/fields';
 import { clientView } from './view';
 
@@ -16,17 +17,14 @@ export const clientListQuerySchema = z
   .strict();
 export type ClientListQuery = z.infer<typeof clientListQuerySchema>;
 
-const likeWord = (w: string) => `%${w.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
-
 export async function listVisibleClients(ctx: RequestContext, query: ClientListQuery = clientListQuerySchema.parse({})) {
-  const words = query.q.trim().split(/\s+/).filter(Boolean);
   const matching = () =>
     visibleClients(ctx.knex, ctx.viewer).modify((q) => {
-      for (const w of words) q.whereILike('display_name', likeWord(w));
+      whereNameHasWords(q, 'display_name', query.q);
       if (query.linked === '1') q.whereIn('id', ctx.viewer.carerOf);
     });
   const [{ count }] = await matching().count({ count: '*' });
-  const rows = await matching().orderBy([{ column: 'display_name' }, { column: 'id' }]).offset(query.offset).limit(query.limit);
+  const rows = await matching().orderByRaw(byNameSql('display_name', 'id')).offset(query.offset).limit(query.limit);
   await auditListed(ctx, 'clients.list', rows);
   const total = Number(count);
   const next = query.offset + rows.length;

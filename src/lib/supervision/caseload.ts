@@ -1,14 +1,13 @@
+import type { Knex } from 'knex';
 import { z } from 'zod';
 import { auditListed, type RequestContext } from '../auth/context';
 import type { ClientRow, FlagRow } from '../db/tables';
 import { forbidden } from '../http/errors';
 import { FLAG_KINDS, FLAG_SEVERITIES } from '../flags';
+import { byNameSql, whereNameHasWords } from '../db/name-search';
 import { line } from '../validation/fields';
 import { flagView, type FlagView } from './flags';
-import { filterRows, flagCounts } from './list-filter';
 import { figuresOf, type ClientOverview } from './overview';
-
-const severityRank = (s: FlagRow['severity']) => FLAG_SEVERITIES.indexOf(s);
 
 export const CASELOAD_SORTS = ['flags', 'client', 'lastSession', 'adherence', 'streak', 'powerTrend'] as const;
 export type CaseloadSort = (typeof CASELOAD_SORTS)[number];
@@ -46,33 +45,15 @@ export interface CaseloadPage {
   all: { clients: number; flags: number; byKind: Record<string, number>; bySeverity: Record<string, number> };
 }
 
-type FlagKey = Pick<FlagRow, 'id' | 'client_id' | 'kind' | 'severity' | 'raised_at'>;
-
-interface Candidate {
-  client: Pick<ClientRow, 'id' | 'clinic_id' | 'display_name' | 'time_zone'>;
-  clientName: string;
-  flags: FlagKey[];
+/** A flag's place in the order triage takes, most urgent first: by severity (FLAG_SEVERITIES). */
+export function flagRank(f: Pick<FlagRow, 'kind' | 'severity'>): number {
+  return FLAG_SEVERITIES.indexOf(f.severity);
 }
+// The same rank in SQL, for ordering the whole list in PostgreSQL; the
+// caseload-pages integration test holds the two to the same order.
+const FLAG_RANK_SQL = `array_position(ARRAY[${FLAG_SEVERITIES.map((s) => `'${s}'`).join(', ')}]::text[], f.severity) - 1`;
 
-const byUrgency = (a: FlagKey, b: FlagKey) => severityRank(a.severity) - severityRank(b.severity) || a.raised_at.getTime() - b.raised_at.getTime();
-
-/** Most severe first, then the longest waiting; clients without flags last (as the table sorts them). */
-function compareFlags(a: Candidate, b: Candidate): number {
-  const [fa, fb] = [a.flags[0], b.flags[0]];
-  if (!fa || !fb) return (fa ? 0 : 1) - (fb ? 0 : 1);
-  return byUrgency(fa, fb);
-}
-
-// One collator for every comparison: String#localeCompare builds one per call.
-const names = new Intl.Collator();
-const byName = (a: Candidate, b: Candidate) => names.compare(a.client.display_name, b.client.display_name) || (a.client.id < b.client.id ? -1 : a.client.id > b.client.id ? 1 : 0);
-
-/** Open flags that are not snoozed: what triage lists. */
-const openFlags = (ctx: RequestContext, clinics: string[]) =>
-  ctx.knex<FlagRow>('flags')
-    .whereIn('clinic_id', clinics)
-    .where({ state: 'open' })
-    .where((q) => q.whereNull('snoozed_until').orWhere('snoozed_until', '<', ctx.knex.raw('current_date')));
+const byUrgency = (a: FlagRow, b: FlagRow) => flagRank(a) - flagRank(b) || a.raised_at.getTime() - b.raised_at.getTime();
 
 /**
  * Orders by a figure; clients without it come where the table puts them:
@@ -99,70 +80,110 @@ const FIGURE_SORTS: Record<Exclude<CaseloadSort, 'flags' | 'client'>, { figure: 
   powerTrend: { figure: (c) => c.powerTrendWPerWeek, nullsFirst: false },
 };
 
+/** Open flags that are not snoozed, of listed clients: what triage shows. */
+function openFlags(knex: Knex, clinics: string[]) {
+  return knex<FlagRow>('flags as f')
+    .join('clients as c', 'c.id', 'f.client_id')
+    .whereIn('f.clinic_id', clinics)
+    .where('f.state', 'open')
+    .whereNull('c.archived_at')
+    .where((q) => q.whereNull('f.snoozed_until').orWhere('f.snoozed_until', '<', knex.raw('current_date')));
+}
+
+type Listed = Pick<ClientRow, 'id' | 'clinic_id' | 'display_name' | 'time_zone'>;
+
 /**
  * The staff caseload: every client of the caller's clinics with their open
  * flags (open, not snoozed), last session, 4-week adherence, streak and power
  * trend, a page at a time. Triage is the same rows limited to clients with
- * open flags, most severe and oldest first. Searching, filtering and ordering
- * by name or flags read only the clients and their open flags; the figures
- * are worked out for the page shown (for every match only when the order is
- * by a figure), from the stored weeks (adherence-store.ts).
+ * open flags, most severe and oldest first. PostgreSQL searches, filters,
+ * orders by flags or name and counts the whole list; the figures are worked
+ * out for the page shown (for every match only when the order is by a
+ * figure), from the stored weeks (adherence-store.ts).
  */
 export async function caseload(ctx: RequestContext, { onlyFlagged }: { onlyFlagged: boolean }, query: CaseloadQuery = caseloadQuerySchema.parse({})): Promise<CaseloadPage> {
   const clinics = ctx.viewer.memberships.map((m) => m.clinicId);
   if (!clinics.length) throw forbidden('Triage and the caseload are for clinic staff.');
+  const { knex } = ctx;
   const now = new Date();
-  // What ordering and filtering need of every open flag; the rest only for the page shown.
-  const flags: FlagKey[] = await openFlags(ctx, clinics).select('id', 'client_id', 'kind', 'severity', 'raised_at');
-  const flagsOf = new Map<string, FlagKey[]>();
-  for (const f of flags) {
-    const list = flagsOf.get(f.client_id);
-    if (list) list.push(f);
-    else flagsOf.set(f.client_id, [f]);
-  }
-  const clients: Candidate['client'][] = await ctx.knex<ClientRow>('clients')
-    .whereIn('clinic_id', clinics)
-    .whereNull('archived_at')
-    .modify((q) => {
-      if (onlyFlagged) q.whereIn('id', openFlags(ctx, clinics).distinct('client_id'));
-    })
-    .select('id', 'clinic_id', 'display_name', 'time_zone');
-  const listed: Candidate[] = clients.map((client) => ({ client, clientName: client.display_name, flags: (flagsOf.get(client.id) ?? []).sort(byUrgency) }));
-  const counts = flagCounts(listed);
-  const all = {
-    clients: listed.length,
-    flags: listed.reduce((n, c) => n + c.flags.length, 0),
-    byKind: Object.fromEntries(counts.kind),
-    bySeverity: Object.fromEntries(counts.severity),
-  };
-  const matching = filterRows(listed, { search: query.q, kind: query.kind, severity: query.severity });
 
+  // The filter menus count every open flag of the list, before any search or filter.
+  const counted: { kind: string; severity: string; n: string; clients: string }[] = await openFlags(knex, clinics)
+    .groupBy('f.kind', 'f.severity')
+    .select('f.kind', 'f.severity', knex.raw('count(*) AS n'));
+  const all = { clients: 0, flags: 0, byKind: {} as Record<string, number>, bySeverity: {} as Record<string, number> };
+  for (const r of counted) {
+    const n = Number(r.n);
+    all.flags += n;
+    all.byKind[r.kind] = (all.byKind[r.kind] ?? 0) + n;
+    all.bySeverity[r.severity] = (all.bySeverity[r.severity] ?? 0) + n;
+  }
+  all.clients = onlyFlagged
+    ? Number((await openFlags(knex, clinics).countDistinct({ n: 'f.client_id' }))[0].n)
+    : Number((await knex('clients').whereIn('clinic_id', clinics).whereNull('archived_at').count({ n: '*' }))[0].n);
+
+  // Each listed client with the rank and time of their most urgent matching flag.
+  const byFlag = Boolean(query.kind || query.severity);
+  const firstFlags = openFlags(knex, clinics)
+    .modify((q) => {
+      if (query.kind) q.where('f.kind', query.kind);
+      if (query.severity) q.where('f.severity', query.severity);
+    })
+    .distinctOn('f.client_id')
+    .select('f.client_id', knex.raw(`${FLAG_RANK_SQL} AS rank`), 'f.raised_at')
+    .orderByRaw(`f.client_id, ${FLAG_RANK_SQL}, f.raised_at`);
   const sort = query.sort ?? (onlyFlagged ? 'flags' : 'client');
   const desc = query.desc === '1' || query.desc === 'true';
-  let figures = new Map<string, ClientOverview>();
+  const dir = desc ? 'DESC' : 'ASC';
+  const byName = byNameSql('c.display_name', 'c.id', desc);
+  const matching = () =>
+    knex('clients as c')
+      .whereIn('c.clinic_id', clinics)
+      .whereNull('c.archived_at')
+      .modify((q) => {
+        whereNameHasWords(q, 'c.display_name', query.q);
+        if (onlyFlagged || byFlag) q.join(firstFlags.as('ff'), 'ff.client_id', 'c.id');
+        else q.leftJoin(firstFlags.as('ff'), 'ff.client_id', 'c.id');
+      });
+  const total = Number((await matching().count({ n: '*' }))[0].n);
+  const listed = (q: Knex.QueryBuilder) =>
+    q.select('c.id', 'c.clinic_id', 'c.display_name', 'c.time_zone').orderByRaw(sort === 'flags' ? `ff.rank ${dir}, ff.raised_at ${dir}, ${byName}` : byName);
+
+  let page: Listed[];
+  let figures: Map<string, ClientOverview>;
   if (sort === 'flags' || sort === 'client') {
-    const compare = sort === 'flags' ? (a: Candidate, b: Candidate) => compareFlags(a, b) || byName(a, b) : byName;
-    matching.sort((a, b) => (desc ? -compare(a, b) : compare(a, b)));
+    page = await listed(matching()).offset(query.offset).limit(query.limit);
+    figures = await figuresOf(knex, page, now);
   } else {
-    figures = await figuresOf(ctx.knex, matching.map((c) => c.client), now);
+    // By a figure: every match's figures, in name order for the ties.
+    const everyone: Listed[] = await listed(matching());
+    figures = await figuresOf(knex, everyone, now);
     const { figure, nullsFirst } = FIGURE_SORTS[sort];
     const compare = byFigure(figure, nullsFirst, desc);
-    matching.sort((a, b) => compare(figures.get(a.client.id)!, figures.get(b.client.id)!) || byName(a, b));
+    page = everyone.sort((a, b) => compare(figures.get(a.id)!, figures.get(b.id)!)).slice(query.offset, query.offset + query.limit);
   }
 
-  const page = matching.slice(query.offset, query.offset + query.limit);
-  const missing = page.filter((c) => !figures.has(c.client.id)).map((c) => c.client);
-  if (missing.length) for (const [id, f] of await figuresOf(ctx.knex, missing, now)) figures.set(id, f);
-  const shownFlags = page.flatMap((c) => c.flags.map((f) => f.id));
-  const full = new Map((shownFlags.length ? await ctx.knex<FlagRow>('flags').whereIn('id', shownFlags) : []).map((f) => [f.id, f]));
-  await auditListed(ctx, onlyFlagged ? 'triage.view' : 'caseload.view', page.map((c) => c.client));
+  const flags: FlagRow[] = page.length
+    ? await knex<FlagRow>('flags as f')
+        .whereIn('f.client_id', page.map((c) => c.id))
+        .where('f.state', 'open')
+        .where((q) => q.whereNull('f.snoozed_until').orWhere('f.snoozed_until', '<', knex.raw('current_date')))
+        .modify((q) => {
+          if (query.kind) q.where('f.kind', query.kind);
+          if (query.severity) q.where('f.severity', query.severity);
+        })
+        .select('f.*')
+    : [];
+  const flagsOf = new Map<string, FlagRow[]>();
+  for (const f of flags) flagsOf.set(f.client_id, [...(flagsOf.get(f.client_id) ?? []), f]);
+  await auditListed(ctx, onlyFlagged ? 'triage.view' : 'caseload.view', page);
   const next = query.offset + page.length;
   return {
-    clients: page.map((c) => ({ clientId: c.client.id, clientName: c.client.display_name, flags: c.flags.map((f) => flagView(full.get(f.id)!)), ...figures.get(c.client.id)! })),
-    total: matching.length,
+    clients: page.map((c) => ({ clientId: c.id, clientName: c.display_name, flags: (flagsOf.get(c.id) ?? []).sort(byUrgency).map(flagView), ...figures.get(c.id)! })),
+    total,
     offset: query.offset,
     limit: query.limit,
-    nextOffset: next < matching.length ? next : null,
+    nextOffset: next < total ? next : null,
     all,
   };
 }
@@ -177,8 +198,8 @@ export async function caseloadNames(ctx: RequestContext): Promise<{ clientId: st
     .select('c.id', 'c.clinic_id', 'c.display_name')
     .select(
       ctx.knex.raw(`(SELECT count(*) FROM flags f WHERE f.client_id = c.id AND f.state = 'open' AND (f.snoozed_until IS NULL OR f.snoozed_until < current_date)) AS open_flags`),
-    );
-  rows.sort((a, b) => names.compare(a.display_name, b.display_name) || (a.id < b.id ? -1 : 1));
+    )
+    .orderByRaw(byNameSql('c.display_name', 'c.id'));
   await auditListed(ctx, 'caseload.view', rows);
   return rows.map((r) => ({ clientId: r.id, clientName: r.display_name, openFlags: Number(r.open_flags) }));
 }
