@@ -8,6 +8,7 @@ import type { Knex } from 'knex';
 import { computeAdherence, type Adherence, type Pause, type PrescriptionVersion } from '../adherence';
 import { adherenceFromStored, storedWeeksFrom, StoredWeeksMissing, weeksToStore, type StoredWeek } from '../adherence/stored';
 import type { ClientRow } from '../db/tables';
+import { isoWeekOf, localDate } from '../time/iso-week';
 import { flagThresholdsSchema } from '../flags';
 import { loadHistories, loadHistory } from './history';
 
@@ -57,7 +58,7 @@ export async function refreshAdherence(knex: Knex, clientId: string, now = new D
     const state = await trx<StateRow>('adherence_state').where({ client_id: clientId }).forUpdate().first('input_seq');
     const client = await trx<ClientRow>('clients').where({ id: clientId }).first();
     if (!client || !state) return;
-    const h = await loadHistory(trx, client);
+    const h = await loadHistory(trx, client, { rules: true });
     const stored = weeksToStore({
       timeZone: client.time_zone,
       prescriptions: h.prescriptions,
@@ -88,6 +89,31 @@ export async function refreshAdherence(knex: Knex, clientId: string, now = new D
       refreshed_at: now,
     });
   });
+}
+
+/**
+ * Refreshes a client's stored weeks unless they are up to date and reach the
+ * current week already (the flag judgement at each client's midnight calls it:
+ * six nights of seven there is nothing to do).
+ */
+export async function refreshAdherenceIfNeeded(knex: Knex, clientId: string, now = new Date()): Promise<boolean> {
+  const row = await knex('adherence_state as s')
+    .join('clients as c', 'c.id', 's.client_id')
+    .join('clinics as k', 'k.id', 'c.clinic_id')
+    .where('s.client_id', clientId)
+    .first('s.input_seq', 's.source_seq', 's.count_threshold_pct', 's.through_monday', 'c.time_zone', 'k.flag_thresholds');
+  if (
+    row &&
+    row.source_seq !== null &&
+    row.source_seq === row.input_seq &&
+    row.count_threshold_pct === flagThresholdsSchema.parse(row.flag_thresholds ?? {}).countThresholdPct &&
+    row.through_monday !== null &&
+    row.through_monday >= isoWeekOf(localDate(now, row.time_zone), row.time_zone).monday
+  ) {
+    return false;
+  }
+  await refreshAdherence(knex, clientId, now);
+  return true;
 }
 
 /**
@@ -240,7 +266,7 @@ export async function readClients(
 
   if (stale.length) {
     const rows = await knex<ClientRow>('clients').whereIn('id', stale);
-    for (const h of await loadHistories(knex, rows)) {
+    for (const h of await loadHistories(knex, rows, { rules: true })) {
       const since = sessionsSince?.getTime() ?? Infinity;
       out.set(h.client.id, {
         prescriptions: h.prescriptions.map(({ effectiveFrom, sessionsPerWeek, minutesPerSession }) => ({ effectiveFrom, sessionsPerWeek, minutesPerSession })),

@@ -3,10 +3,12 @@ import { db } from '../db/knex';
 import { onRidesChanged } from '../ingest/ride-events';
 import { filesInFlight } from '../ingest/sweep';
 import { QUEUES, queue, sendJob, workQueue } from '../jobs/queue';
-import { refreshAdherence } from './adherence-store';
+import { refreshAdherence, refreshAdherenceIfNeeded } from './adherence-store';
 import { evaluateClientFlags } from './flag-store';
 import { clientsWithNewDay } from './new-day';
 
+
+const SWEEP_PAGE = 500;
 
 // Files arrive in batches (a fortnight at once, in any order). Evaluating a
 // little after the last one, and never while the client still has files
@@ -19,9 +21,10 @@ export async function scheduleFlagEvaluation(clientId: string, delayS = config()
  * Stores the client's weeks again. A failure only leaves them stale, which
  * readers notice and answer from the whole history; the minute sweep tries again.
  */
-export async function refreshStoredWeeks(clientId: string): Promise<void> {
+export async function refreshStoredWeeks(clientId: string, { always = true }: { always?: boolean } = {}): Promise<void> {
   try {
-    await refreshAdherence(db(), clientId);
+    if (always) await refreshAdherence(db(), clientId);
+    else await refreshAdherenceIfNeeded(db(), clientId);
   } catch (err) {
     console.error(`storing the weeks of client ${clientId} failed:`, (err as Error).message);
   }
@@ -38,14 +41,21 @@ export async function registerFlagJobs(): Promise<void> {
   await workQueue<{ clientId: string }>(QUEUES.evaluateFlags, async ({ clientId }) => {
     if (await filesInFlight(db(), clientId)) return scheduleFlagEvaluation(clientId);
     await evaluateClientFlags(db(), clientId);
-    await refreshStoredWeeks(clientId);
+    await refreshStoredWeeks(clientId, { always: false });
   });
 
   // Every hour, the clients for whom it has just turned midnight: a finished
   // day (no session for too long) and, on Mondays, a finished week.
   await (await queue()).schedule(QUEUES.sweepFlags, '5 * * * *');
   await workQueue(QUEUES.sweepFlags, async () => {
-    const clients = await db()('clients').whereNull('archived_at').select('id', 'time_zone');
-    for (const c of clientsWithNewDay(clients, new Date())) await scheduleFlagEvaluation(c.id, 0);
+    const now = new Date();
+    // A page of clients at a time: the sweep's memory does not grow with the installation.
+    let after = '00000000-0000-0000-0000-000000000000';
+    for (;;) {
+      const clients: { id: string; time_zone: string }[] = await db()('clients').whereNull('archived_at').where('id', '>', after).orderBy('id').limit(SWEEP_PAGE).select('id', 'time_zone');
+      if (!clients.length) break;
+      after = clients[clients.length - 1].id;
+      for (const c of clientsWithNewDay(clients, now)) await scheduleFlagEvaluation(c.id, 0);
+    }
   });
 }

@@ -16,15 +16,22 @@ export function activePauses(rows: PauseRow[]): Pause[] {
   return rows.filter((p) => !p.cancelled_at).map((p) => ({ from: p.starts_on, to: p.ends_on }));
 }
 
-export async function loadHistory(knex: Knex, client: ClientRow): Promise<ClientHistory> {
-  return (await loadHistories(knex, [client]))[0];
+/**
+ * `rules`: only the columns the adherence and flag rules read (the flag
+ * judgement and the stored weeks run for every client every day; a ride's
+ * channels and warnings are the larger part of its row).
+ */
+export async function loadHistory(knex: Knex, client: ClientRow, { rules = false }: { rules?: boolean } = {}): Promise<ClientHistory> {
+  return (await loadHistories(knex, [client], { rules }))[0];
 }
+
+const RULE_COLUMNS = ['id', 'client_id', 'started_at', 'duration_s', 'mean_power_w', 'current_per_watt_ma_per_w'] as const;
 
 /**
  * The histories of several clients in four queries, whatever their number:
  * triage, the caseload and the hourly mail judge a whole clinic at once.
  */
-export async function loadHistories(knex: Knex, clients: ClientRow[]): Promise<ClientHistory[]> {
+export async function loadHistories(knex: Knex, clients: ClientRow[], { rules = false }: { rules?: boolean } = {}): Promise<ClientHistory[]> {
   if (!clients.length) return [];
   const ids = clients.map((c) => c.id);
   // One after another, not in parallel: the flag judge passes a transaction,
@@ -32,7 +39,12 @@ export async function loadHistories(knex: Knex, clients: ClientRow[]): Promise<C
   // connection from its next major on.
   const prescriptions = await knex<PrescriptionRow>('prescriptions').whereIn('client_id', ids).orderBy('version');
   const pauses = await knex<PauseRow>('pauses').whereIn('client_id', ids).orderBy('starts_on');
-  const rides = await knex<RideRow>('rides').whereIn('client_id', ids).orderBy('started_at');
+  const rides: RideRow[] = await knex<RideRow>('rides')
+    .whereIn('client_id', ids)
+    .orderBy('started_at')
+    .modify((q) => {
+      if (rules) q.select(RULE_COLUMNS);
+    });
   const clinics = await knex('clinics').whereIn('id', [...new Set(clients.map((c) => c.clinic_id))]).select('id', 'flag_thresholds');
   const thresholds = new Map(clinics.map((c) => [c.id as string, flagThresholdsSchema.parse(c.flag_thresholds ?? {})]));
   // Grouped once, so a clinic-wide read stays linear in its rows.
