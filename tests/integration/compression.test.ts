@@ -69,8 +69,8 @@ describe('compression of answers', () => {
     expect(me.body.length).toBeLessThan(1024);
     expect(me.headers['content-encoding']).toBeUndefined();
 
-    const html = (await get('/sign-in', { 'accept-encoding': 'identity' })).body.toString('utf8');
-    const script = /src="(\/_astro\/[^"]+\.js)"/.exec(html)?.[1];
+    const html = (await get('/triage', { cookie, 'accept-encoding': 'identity' })).body.toString('utf8');
+    const script = /(?:component-url|renderer-url|src)="(\/_astro\/[^"]+\.js)"/.exec(html)?.[1];
     expect(script).toBeTruthy();
     const plain = await get(script!, { 'accept-encoding': 'identity' });
     const gz = await get(script!, { 'accept-encoding': 'gzip' });
