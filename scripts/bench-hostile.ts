@@ -11,7 +11,7 @@ import http from 'node:http';
 import net from 'node:net';
 import { hashPassword } from '../src/lib/auth/password';
 import { config } from '../src/lib/config';
-import { closeDb, db } from '../src/lib/db/knex';
+import { closeDatabase, maintenanceKnex } from '../src/lib/data';
 import { generateRide } from '../src/lib/demo/ride-generator';
 import { writeBenchCycleA } from '../src/lib/demo/ride-layouts';
 import { s3 } from '../src/lib/storage/s3';
@@ -21,7 +21,7 @@ const workerPid = Number(process.env.BENCH_WORKER_PID);
 const appPid = Number(process.env.BENCH_APP_PID);
 const MiB = 1024 * 1024;
 const PASSWORD = 'bench-hostile-2026';
-const knex = db();
+const knex = maintenanceKnex();
 
 // ---------------------------------------------------------------- memory
 
@@ -340,9 +340,9 @@ async function main() {
 }
 
 main()
-  .then(() => closeDb())
+  .then(() => closeDatabase())
   .catch(async (err) => {
     console.error(err);
-    await closeDb();
+    await closeDatabase();
     process.exit(1);
   });

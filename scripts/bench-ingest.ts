@@ -6,7 +6,7 @@ import Papa from 'papaparse';
 import { from as copyFrom } from 'pg-copy-streams';
 import { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
-import { closeDb, db } from '../src/lib/db/knex';
+import { closeDatabase, maintenanceKnex } from '../src/lib/data';
 import type { ClientRow, UploadRow } from '../src/lib/db/tables';
 import { generateRide } from '../src/lib/demo/ride-generator';
 import { writeBenchCycleA } from '../src/lib/demo/ride-layouts';
@@ -15,7 +15,7 @@ import { parseRide } from '../src/lib/rides/parse';
 import { decodeSeries, encodeSeries } from '../src/lib/rides/series-codec';
 import type { ParsedRide, RideSeries } from '../src/lib/rides/types';
 
-const knex = db();
+const knex = maintenanceKnex();
 
 function rideFile(rows: number): Uint8Array {
   const hz = 10;
@@ -194,9 +194,9 @@ async function storageOptions(series: RideSeries, csvBytes: number, base: number
 }
 
 main()
-  .then(() => closeDb())
+  .then(() => closeDatabase())
   .catch(async (err) => {
     console.error(err);
-    await closeDb();
+    await closeDatabase();
     process.exit(1);
   });

@@ -11,7 +11,7 @@
 // Everything runs in one transaction that is rolled back: the database is
 // left as it was, so the benchmark can be repeated on the same data.
 import { DateTime } from 'luxon';
-import { closeDb, db } from '../src/lib/db/knex';
+import { closeDatabase, maintenanceKnex } from '../src/lib/data';
 import { sendScheduledEmails } from '../src/lib/notifications/scheduled';
 import { refreshAdherenceIfNeeded } from '../src/lib/supervision/adherence-store';
 import { evaluateClientFlags } from '../src/lib/supervision/flag-store';
@@ -22,7 +22,7 @@ if (job !== 'sweep' && job !== 'mail') {
   process.exit(64);
 }
 const mb = (kb: number) => Math.round(kb / 1024);
-const knex = db();
+const knex = maintenanceKnex();
 const trx = await knex.transaction();
 try {
   const clinic = await trx('clinics').orderBy('created_at').first('time_zone');
@@ -49,5 +49,5 @@ try {
   console.log(JSON.stringify({ job, ms: Math.round(ms), peakRssMb: mb(process.resourceUsage().maxRSS), rssBeforeMb: rssBefore, heapGrowthMb: Math.round((process.memoryUsage().heapUsed - heapBefore) / 2 ** 20), ...detail }));
 } finally {
   await trx.rollback();
-  await closeDb();
+  await closeDatabase();
 }

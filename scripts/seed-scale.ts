@@ -5,7 +5,7 @@ import { writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
 import { config } from '../src/lib/config';
-import { closeDb, db } from '../src/lib/db/knex';
+import { closeDatabase, maintenanceKnex } from '../src/lib/data';
 import { seedScale } from './lib/scale/load';
 
 export const SEED_NOTE = 'scale-seed.json';
@@ -37,7 +37,7 @@ const options = {
   storeFiles: values['store-files']!,
 };
 try {
-  const result = await seedScale(db(), {
+  const result = await seedScale(maintenanceKnex(), {
     ...options,
     now,
     password: values.password ?? 'kinloop-demo-2026',
@@ -48,5 +48,5 @@ try {
   writeFileSync(path.join(config().dataDir, SEED_NOTE), JSON.stringify({ seededAt: now.toISOString(), seconds, options, result }, null, 2) + '\n');
   console.log(`[seed:scale] done in ${seconds} s: ${JSON.stringify(result)}`);
 } finally {
-  await closeDb();
+  await closeDatabase();
 }

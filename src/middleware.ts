@@ -2,7 +2,7 @@ import { defineMiddleware } from 'astro:middleware';
 import { DEVICE_COOKIE, readDeviceCookie, readSessionCookie, SESSION_COOKIE } from './lib/auth/cookie';
 import { loadSession } from './lib/auth/sessions';
 import { config } from './lib/config';
-import { db } from './lib/db/knex';
+import { authDb } from './lib/data';
 import { clientIp } from './lib/http/request';
 import { errorResponse, json } from './lib/http/respond';
 import { securityHeaders } from './lib/http/security-headers.mjs';
@@ -48,7 +48,7 @@ export const onRequest = defineMiddleware(async (context, next) => {
 
     const sessionId = await readSessionCookie(cookies.get(SESSION_COOKIE)?.value);
     try {
-      locals.viewer = sessionId ? await loadSession(db(), sessionId) : null;
+      locals.viewer = sessionId ? await loadSession(authDb(), sessionId) : null;
     } catch (err) {
       // The database is away: a 503 that says so, not a crash page.
       return errorResponse(err);

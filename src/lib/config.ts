@@ -44,6 +44,10 @@ export interface AppConfig {
   parseProcesses: number;
   /** Bytes of ride files one clinic may store. */
   clinicStorageQuotaBytes: number;
+  /** Connections in the database pool. */
+  dbPool: number;
+  /** The outbox's first retry delay; later ones double. */
+  outboxRetryMs: number;
 }
 
 let cached: AppConfig | null = null;
@@ -80,6 +84,8 @@ export function config(): AppConfig {
     flagDelayS: int('KINLOOP_FLAG_DELAY_S', 10),
     parseProcesses: Math.max(1, Math.floor(int('KINLOOP_PARSE_PROCESSES', 1))),
     clinicStorageQuotaBytes: int('KINLOOP_CLINIC_STORAGE_GB', 100) * 1024 ** 3,
+    dbPool: int('KINLOOP_DB_POOL', 10),
+    outboxRetryMs: int('KINLOOP_OUTBOX_RETRY_MS', 15_000),
   };
   return cached;
 }

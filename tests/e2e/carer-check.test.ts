@@ -47,7 +47,7 @@ async function fillReading(page: Page, readings: Record<string, string>) {
 }
 
 async function save(page: Page) {
-  await page.getByRole('button', { name: 'Save check' }).click();
+  await page.getByRole('button', { name: 'Save check' }).first().click();
   await page.getByTestId('check-outcome').waitFor();
 }
 
@@ -83,14 +83,16 @@ describe('a carer’s check with a blood pressure rise', () => {
 
     // A first, unremarkable check: its pre-ride reading becomes the baseline.
     await fillReading(page, { 'Systolic before (mmHg)': '118', 'Diastolic before (mmHg)': '76', 'Heart rate before (bpm)': '72' });
-    await page.getByRole('button', { name: 'Mark all six sites normal' }).click();
+    await page.getByRole('checkbox', { name: /^None: no warning signs/ }).check();
+    await page.getByRole('checkbox', { name: 'Skin normal at every site' }).check();
+    await expect(page.getByRole('checkbox', { name: 'Pounding headache' }).count()).resolves.toBe(0);
     await save(page);
     await page.getByRole('heading', { name: 'Check saved for Jonah Pryce' }).waitFor();
     await expect(page.getByTestId('safety-panel').count()).resolves.toBe(0);
 
     // A mistake is caught before anything is sent.
     await fillReading(page, { 'Systolic after (mmHg)': '150' });
-    await page.getByRole('button', { name: 'Save check' }).click();
+    await page.getByRole('button', { name: 'Save check' }).first().click();
     await page.getByText('The check is not saved yet. Please look at:').waitFor();
     expect(await page.getByText('Diastolic pressure after the ride is missing.').count()).toBeGreaterThan(0);
 

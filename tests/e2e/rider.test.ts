@@ -82,9 +82,9 @@ describe('the rider’s pages', () => {
     const headline = page.getByTestId('week-headline');
     await headline.waitFor();
     expect(await headline.textContent()).toMatch(/^(\d+ of \d+ sessions? done this week|\d+ sessions? done this week.*|No sessions yet this week)$/);
-    expect(await page.getByTestId('next-due').textContent()).toMatch(/Next ride|rides are done|paused|No rides are set/);
+    expect(await page.getByTestId('next-due').textContent()).toMatch(/Next session: |sessions are done|paused|No sessions are set/);
     expect(await page.getByTestId('streak').textContent()).toMatch(/week streak|No streak yet/);
-    const latest = page.getByRole('link', { name: 'See this ride in full' });
+    const latest = page.getByRole('link', { name: 'See this session in full' });
     expect(await latest.getAttribute('href')).toMatch(/^\/sessions\/[0-9a-f-]{36}$/);
     for (const name of ['Record how a ride went', 'Upload rides', 'My prescription']) {
       const box = await page.getByRole('navigation', { name: 'Things to do' }).getByRole('link', { name }).boundingBox();
@@ -96,7 +96,7 @@ describe('the rider’s pages', () => {
   it('Progress has the three weekly charts with tables, the personal bests and the goal summary', async () => {
     await page.goto(`${baseUrl()}/progress`);
     await page.getByTestId('totals').waitFor();
-    expect(await page.getByTestId('totals').textContent()).toMatch(/^Since your program started: \d+ rides/);
+    expect(await page.getByTestId('totals').textContent()).toMatch(/^Since your program started: \d+ sessions/);
     await expect(page.locator('canvas[role="img"]').count()).resolves.toBe(3);
     for (const title of ['Mean power', 'Active minutes', 'Distance']) {
       const table = page.getByRole('table', { name: `${title}, week by week` });
@@ -105,7 +105,7 @@ describe('the rider’s pages', () => {
     }
     const bests = page.getByTestId('best');
     await expect(bests.count()).resolves.toBe(3);
-    expect(await bests.nth(0).textContent()).toMatch(/Longest active ride\d+ (min|h)/);
+    expect(await bests.nth(0).textContent()).toMatch(/Longest active session\d+ (min|h)/);
     expect(await bests.nth(1).textContent()).toMatch(/Highest 5-second power[\d.]+ W/);
     await page.getByRole('heading', { name: 'Distance goal' }).waitFor();
     await checkAtEveryWidth('progress');

@@ -1,3 +1,4 @@
+import { DateTime } from 'luxon';
 import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seriousViolations } from '../support/axe';
@@ -50,10 +51,16 @@ describe('triage, the therapist’s home', () => {
       expect(text).toContain(seeded.words);
       expect(text).toContain({ urgent: 'Urgent', review: 'Review', info: 'Info' }[seeded.severity]);
     }
-    // The most severe and longest waiting come first.
-    const severities = await page.getByTestId('client-row').evaluateAll((rows) => rows.map((r) => r.querySelector('[data-testid="flag"]')?.getAttribute('data-severity')));
-    const rank = (s: string | null | undefined) => ['urgent', 'review', 'info'].indexOf(s ?? '');
-    expect(severities.map(rank)).toEqual([...severities.map(rank)].sort((a, b) => a - b));
+    // Most clinically urgent first: a blood pressure rise above all, then urgent, review, info — and the page says so.
+    const firsts = await page.getByTestId('client-row').evaluateAll((rows) =>
+      rows.map((r) => {
+        const f = r.querySelector('[data-testid="flag"]');
+        return { kind: f?.getAttribute('data-kind'), severity: f?.getAttribute('data-severity') };
+      }),
+    );
+    const group = (f: { kind?: string | null; severity?: string | null }) => (f.kind === 'bp_rise' ? 0 : 1 + ['urgent', 'review', 'info'].indexOf(f.severity ?? ''));
+    expect(firsts.map(group)).toEqual([...firsts.map(group)].sort((a, b) => a - b));
+    await expect(page.getByTestId('triage-order').textContent()).resolves.toMatch(/first a blood pressure rise or warning signs of autonomic dysreflexia, then other urgent flags, then flags for review, then flags for information/);
     expect(await seriousViolations(page)).toEqual([]);
     await context.close();
   });
@@ -61,23 +68,26 @@ describe('triage, the therapist’s home', () => {
   it('acknowledges Hollis Ferreira’s flag with a note from the keyboard, and the flag leaves the open list', async () => {
     const { context, page } = await therapistOnTriage();
     const hollis = row(page, 'Hollis Ferreira');
-    const acknowledge = hollis.getByRole('button', { name: 'Acknowledge Power drop flag for Hollis Ferreira' });
-    const dialog = page.getByRole('dialog', { name: 'Acknowledge this flag' });
+    // One button per flag whose visible words name the flag and the client, so a voice user can say it.
+    const act = hollis.getByRole('button', { name: 'Act on power drop for Hollis Ferreira', exact: true });
+    const dialog = page.getByRole('dialog', { name: 'Power drop for Hollis Ferreira' });
 
     // Escape closes the dialog without saving, and focus returns to the button that opened it.
-    await acknowledge.focus();
+    await act.focus();
     await page.keyboard.press('Enter');
     await dialog.waitFor();
-    await expect(activeElement(page)).resolves.toMatchObject({ tag: 'textarea', name: 'note' });
+    await expect(activeElement(page)).resolves.toMatchObject({ tag: 'input', name: 'action' });
     expect(await seriousViolations(page)).toEqual([]);
     await page.keyboard.press('Escape');
     await dialog.waitFor({ state: 'hidden' });
-    await expect(activeElement(page)).resolves.toMatchObject({ tag: 'button', text: 'Acknowledge Power drop flag for Hollis Ferreira' });
+    await expect(activeElement(page)).resolves.toMatchObject({ tag: 'button', text: 'Act on power drop for Hollis Ferreira' });
     await expect(flagOf(hollis, 'power_drop').count()).resolves.toBe(1);
 
+    // Acknowledge is the first choice: Tab to the note, type it, Tab to the button.
     const note = `Spoke with Hollis ${Date.now()}: new electrode pads, will watch the next two sessions.`;
     await page.keyboard.press('Enter');
     await dialog.waitFor();
+    await page.keyboard.press('Tab');
     await page.keyboard.type(note);
     await page.keyboard.press('Tab');
     await page.keyboard.press('Tab');
@@ -101,16 +111,14 @@ describe('triage, the therapist’s home', () => {
   it('offers a snooze a week ahead, and closes on Escape without snoozing', async () => {
     const { context, page } = await therapistOnTriage();
     const dev = row(page, 'Dev Ramaswamy');
-    await dev.getByRole('button', { name: 'Snooze Power drop flag for Dev Ramaswamy' }).click();
-    const dialog = page.getByRole('dialog', { name: 'Snooze this flag' });
+    await dev.getByRole('button', { name: 'Act on power drop for Dev Ramaswamy' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Power drop for Dev Ramaswamy' });
     await dialog.waitFor();
-    const weekAhead = await page.evaluate(() => {
-      const d = new Date();
-      d.setDate(d.getDate() + 7);
-      return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`;
-    });
+    await dialog.getByRole('radio', { name: 'Snooze' }).check();
+    // A week after the client's today (Dev is in Europe/London).
+    const weekAhead = DateTime.now().setZone('Europe/London').plus({ days: 7 }).toISODate();
     await expect(dialog.getByLabel('Snooze until').inputValue()).resolves.toBe(weekAhead);
-    await expect(activeElement(page)).resolves.toMatchObject({ tag: 'input', name: 'until' });
+    await expect(dialog.getByRole('button', { name: 'Snooze flag' }).count()).resolves.toBe(1);
     await page.keyboard.press('Escape');
     await dialog.waitFor({ state: 'hidden' });
     await expect(flagOf(dev, 'power_drop').count()).resolves.toBe(1);
@@ -129,6 +137,8 @@ describe('triage, the therapist’s home', () => {
     await expect(row(page, 'Elsie Varga').count()).resolves.toBe(0);
 
     await page.getByLabel('Search by client name').fill('noor');
+    // The server searches once typing pauses (paged.ts).
+    await row(page, 'Dev Ramaswamy').waitFor({ state: 'detached' });
     await expect(page.getByTestId('client-row').count()).resolves.toBe(1);
     await page.getByLabel('Severity').selectOption('');
     await page.getByLabel('Search by client name').fill('');

@@ -96,10 +96,10 @@ describe('uploading ride files', () => {
       expect(text).toMatch(/Duration\s*2 min/);
       expect(text).toMatch(/Active\s*1\.5 min/);
     }
-    // from memory: en-US long weekday, month and year with a two-digit 12-hour clock, as ICU writes them.
-    await expect(item(page, rides[0].name).textContent()).resolves.toContain('session of Friday, March 14, 2025 at 09:27 AM');
+    // from memory: British English, Kinloop's fallback locale, writes the weekday, day, month and year, then a 24-hour clock.
+    await expect(item(page, rides[0].name).textContent()).resolves.toContain('session of Friday, 14 March 2025, 09:27');
     await expect(item(page, rides[0].name).textContent()).resolves.toContain('Mean power23.4 W');
-    await expect(item(page, rides[1].name).textContent()).resolves.toContain('session of Friday, March 14, 2025 at 12:27 PM');
+    await expect(item(page, rides[1].name).textContent()).resolves.toContain('session of Friday, 14 March 2025, 12:27');
     await expect(item(page, rides[1].name).textContent()).resolves.toContain('Mean power27.1 W');
     for (const ride of rides) {
       const row = item(page, ride.name);
@@ -123,7 +123,7 @@ describe('uploading ride files', () => {
     await waitForResults(page, 4);
     const again = page.getByTestId('upload-item').nth(3);
     await expect(again.getAttribute('data-status')).resolves.toBe('duplicate');
-    await expect(again.textContent()).resolves.toContain('Already in Kinloop as the session of Friday, March 14, 2025 at 09:27 AM');
+    await expect(again.textContent()).resolves.toContain('Already in Kinloop as the session of Friday, 14 March 2025, 09:27');
     await context.close();
   });
 
@@ -136,6 +136,8 @@ describe('uploading ride files', () => {
     expect(figures).toContain('Duration2 min');
     expect(figures).toContain('Active1.5 min');
     expect(figures).toContain('Mean cadence42 rpm');
+    // The charts come after the page, with their series (SessionCharts.tsx).
+    await page.locator('canvas[role="img"]').nth(1).waitFor();
     await expect(page.locator('canvas[role="img"]').count()).resolves.toBe(2);
     await expect(page.getByRole('link', { name: 'Download the original file' }).count()).resolves.toBe(1);
     await expect(page.getByRole('link', { name: 'Back to Jonah Pryce' }).count()).resolves.toBe(1);

@@ -49,22 +49,25 @@ describe('triage and the caseload, a page at a time', () => {
     const raised = (daysAgo: number) => new Date(Date.now() - daysAgo * 86_400_000);
     const flag = (name: string, kind: string, severity: string, daysAgo: number) =>
       world.knex('flags').insert({ client_id: ids[name], clinic_id: clinic.id, kind, severity, state: 'open', anchor: randomUUID(), reason: `${kind} of ${name}`, evidence: '{}', raised_at: raised(daysAgo) });
-    // Hand-ordered: urgent before review before info, the longest waiting first within a severity.
+    // Hand-ordered (PRODUCT.md, triage): a blood pressure rise of any severity first, then urgent,
+    // review and info, the longest waiting first within each.
     await flag('Dara Elm', 'power_drop', 'urgent', 2);
     await flag('Ben Cedar', 'missed_sessions', 'urgent', 5);
     await flag('Ben Cedar', 'short_session', 'info', 1);
     await flag('Fay Gale', 'missed_sessions', 'review', 3);
     await flag('Ada Birch', 'current_rise', 'review', 1);
     await flag('Eli Fern', 'short_session', 'info', 9);
+    await flag('Eli Fern', 'bp_rise', 'review', 0);
     const http = await new Http().signIn(`paging.${world.tag}@example.test`, PASSWORD);
 
     const pages: Page[] = [];
     for (let offset: number | null = 0; offset !== null; offset = pages.at(-1)!.nextOffset) pages.push((await http.json('GET', `/api/triage?limit=2&offset=${offset}`)).body);
-    expect(pages.map((p) => p.clients.map((r) => r.clientName))).toEqual([['Ben Cedar', 'Dara Elm'], ['Fay Gale', 'Ada Birch'], ['Eli Fern']]);
+    expect(pages.map((p) => p.clients.map((r) => r.clientName))).toEqual([['Eli Fern', 'Ben Cedar'], ['Dara Elm', 'Fay Gale'], ['Ada Birch']]);
     expect(pages.map((p) => [p.total, p.offset, p.nextOffset])).toEqual([[5, 0, 2], [5, 2, 4], [5, 4, null]]);
-    expect(pages[0].all).toEqual({ clients: 5, flags: 6, byKind: { power_drop: 1, missed_sessions: 2, short_session: 2, current_rise: 1 }, bySeverity: { urgent: 2, info: 2, review: 2 } });
-    // A client's own flags, most severe first.
-    expect(pages[0].clients[0].flags.map((f) => f.severity)).toEqual(['urgent', 'info']);
+    expect(pages[0].all).toEqual({ clients: 5, flags: 7, byKind: { power_drop: 1, missed_sessions: 2, short_session: 2, current_rise: 1, bp_rise: 1 }, bySeverity: { urgent: 2, info: 2, review: 3 } });
+    // A client's own flags, most urgent first.
+    expect(pages[0].clients[0].flags.map((f) => f.kind)).toEqual(['bp_rise', 'short_session']);
+    expect(pages[0].clients[1].flags.map((f) => f.severity)).toEqual(['urgent', 'info']);
 
     const info = (await http.json('GET', '/api/triage?severity=info')).body as Page;
     expect(info.clients.map((r) => [r.clientName, r.flags.map((f) => f.kind)])).toEqual([['Eli Fern', ['short_session']], ['Ben Cedar', ['short_session']]]);

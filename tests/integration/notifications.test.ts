@@ -81,7 +81,9 @@ describe('weekly summary', () => {
     // (2 m a revolution). Four rides: 118 minutes, 10.032 km. Three were
     // prescribed; the week before had none, so the streak is one week.
     expect(mail.subject).toBe('Your riding last week: 4 sessions');
-    expect(mail.text_body).toContain(`Last week (${key}) you rode 4 times of the 3 planned: 118 active minutes and 10.0 km.`);
+    // The week is written as the date it starts, in the clinic's locale (en-GB for a London clinic).
+    const week = `the week of ${lastWeek.setLocale('en-GB').toFormat('d MMMM')}`;
+    expect(mail.text_body).toContain(`Last week (${week}) you did 4 sessions of the 3 planned: 118 active minutes and 10.0 km.`);
     expect(mail.text_body).toContain('Your streak: 1 week.');
     expect(await run(world, monday.plus({ hours: 3 }))).toMatchObject({ weekly: 0 });
     expect(await queuedTo(world, world.users.carer.email, 'weekly_summary')).toEqual([]);

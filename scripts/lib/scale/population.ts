@@ -11,6 +11,7 @@ import type { AdRisk, Diagnosis } from '../../../src/lib/db/tables';
 import { between, integerBetween, mulberry32, normal, seedOf, type Random } from '../../../src/lib/demo/prng';
 import type { NamedChannel, RideSpec } from '../../../src/lib/demo/ride-generator';
 import type { LayoutKey } from '../../../src/lib/demo/ride-layouts';
+import { localDate } from '../../../src/lib/time/local-date';
 
 export interface PopulationOptions {
   /** Clients of the main clinic (the demo's, when it is seeded). */
@@ -193,10 +194,6 @@ function wallTime(date: string, minuteOfDay: number, zone: string): string {
   return `${date}T${pad(Math.floor(minuteOfDay / 60))}:${pad(minuteOfDay % 60)}:00${sign}${pad(Math.floor(a / 60))}:${pad(a % 60)}`;
 }
 
-function localToday(now: Date, zone: string): string {
-  return DateTime.fromJSDate(now).setZone(zone).toISODate()!;
-}
-
 function user(kind: string, n: number, clinicKey: string, name: string): PlannedUser {
   return { id: '', email: `${kind}${String(n).padStart(4, '0')}.${clinicKey}@scale.kinloop.test`, name };
 }
@@ -230,7 +227,7 @@ export function planPopulation(options: PopulationOptions, mainClinic: { id: str
 
   const clients: PlannedClient[] = [];
   const carers: PlannedCarer[] = [];
-  const today = localToday(options.now, 'UTC');
+  const today = localDate(options.now, 'UTC');
   const spanDays = Math.round(options.years * 365);
   for (const clinic of clinics) {
     let lastCarer: PlannedCarer | null = null;
@@ -383,7 +380,7 @@ function scaleCurrents(currents: Partial<Record<NamedChannel, number>>, factor: 
 /** A client's sessions, oldest first, each ending before `now`. */
 export function clientSessions(c: PlannedClient, now: Date): PlannedSession[] {
   const r = mulberry32(c.seed ^ 0x5e55);
-  const today = localToday(now, c.timeZone);
+  const today = localDate(now, c.timeZone);
   const end = c.archivedOn ?? today;
   const firstRide = dayNumber(c.programStart) + integerBetween(r, 0, 6);
   const lapses = new Set<number>();

@@ -6,7 +6,8 @@
 // mean power, channel mean and maximum to the plateau, motor-driven power,
 // cadence offset) are the generator's, measured once per seed run.
 import { generateRide, type GeneratedRide, type RideSpec } from '../../../src/lib/demo/ride-generator';
-import { DECIMALS, DEFAULT_METRES_PER_REV, MIN_POWER_FOR_RATIO_W, roundTo, summarise } from '../../../src/lib/rides/metrics';
+import { roundTo } from '../../../src/lib/analytics/round';
+import { DECIMALS, DEFAULT_METRES_PER_REV, MIN_POWER_FOR_RATIO_W, summarise } from '../../../src/lib/rides/metrics';
 import type { ChannelName, RideSeries, RideSummary } from '../../../src/lib/rides/types';
 import { normal, type Random } from '../../../src/lib/demo/prng';
 

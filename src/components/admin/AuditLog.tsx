@@ -1,10 +1,11 @@
 import { createColumnHelper } from '@tanstack/react-table';
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
 import { useApi } from '../api';
 import { DataTable } from '../ui/DataTable';
 import { EmptyState } from '../ui/EmptyState';
 import { TextField } from '../ui/Field';
 import { Loaded } from '../ui/Loading';
+import { formatDateTime } from '../../lib/time/format';
 
 interface Entry {
   id: number;
@@ -17,15 +18,17 @@ interface Entry {
 }
 
 const col = createColumnHelper<Entry>();
-const columns = [
-  col.accessor('at', { header: 'When', cell: (c) => new Date(c.getValue()).toLocaleString() }),
+const columnsFor = (locale: string, timeZone: string) => [
+  col.accessor('at', { header: 'When', cell: (c) => formatDateTime(c.getValue(), locale, timeZone) }),
   col.accessor((e) => e.actor?.name ?? 'Not signed in', { id: 'who', header: 'Who' }),
   col.accessor('action', { header: 'What', cell: (c) => <code className="text-sm">{c.getValue()}</code> }),
   col.accessor((e) => e.clientName ?? '', { id: 'client', header: 'Client', cell: (c) => c.getValue() || '—' }),
   col.accessor((e) => e.ip ?? '', { id: 'ip', header: 'From' }),
 ];
 
-export default function AuditLog() {
+/** Times in the clinic's zone and locale. */
+export default function AuditLog({ locale, timeZone }: { locale: string; timeZone: string }) {
+  const columns = useMemo(() => columnsFor(locale, timeZone), [locale, timeZone]);
   const [action, setAction] = useState('');
   const url = `/api/audit?limit=200${action.trim() ? `&action=${encodeURIComponent(action.trim())}` : ''}`;
   const [entries, reload] = useApi<{ entries: Entry[] }>(url);

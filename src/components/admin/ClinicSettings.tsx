@@ -5,13 +5,16 @@ import { formErrorText } from '../client/form-errors';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import CautionBanner from '../ui/CautionBanner';
-import { TextField } from '../ui/Field';
+import { SelectField, TextField } from '../ui/Field';
+import { formatDateTime } from '../../lib/time/format';
 import { Loaded } from '../ui/Loading';
 
 interface Settings {
   clinicId: string;
   name: string;
   timeZone: string;
+  locale: string | null;
+  defaultLocale: string;
   flagThresholds: FlagThresholds;
   defaults: FlagThresholds;
 }
@@ -133,6 +136,78 @@ function ThresholdsForm({ settings }: { settings: Settings }) {
   );
 }
 
+// English as written in these places: the words stay English, the order of day
+// and month and the clock follow the choice.
+const LOCALES: { tag: string; name: string }[] = [
+  { tag: 'en-GB', name: 'United Kingdom' },
+  { tag: 'en-IE', name: 'Ireland' },
+  { tag: 'en-US', name: 'United States' },
+  { tag: 'en-CA', name: 'Canada' },
+  { tag: 'en-AU', name: 'Australia' },
+  { tag: 'en-NZ', name: 'New Zealand' },
+  { tag: 'en-ZA', name: 'South Africa' },
+  { tag: 'en-IN', name: 'India' },
+  { tag: 'en-DE', name: 'Germany' },
+  { tag: 'en-NL', name: 'Netherlands' },
+  { tag: 'en-SE', name: 'Sweden' },
+];
+const SAMPLE = '2026-11-23T14:05:00Z';
+
+function DateFormatForm({ settings }: { settings: Settings }) {
+  const [choice, setChoice] = useState(settings.locale ?? '');
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<ApiError | null>(null);
+  const [saved, setSaved] = useState(false);
+  const sample = (tag: string) => formatDateTime(SAMPLE, tag, settings.timeZone, 'day');
+  const known = LOCALES.find((l) => l.tag === settings.defaultLocale);
+
+  async function submit(e: FormEvent) {
+    e.preventDefault();
+    setBusy(true);
+    setError(null);
+    setSaved(false);
+    try {
+      await api<Settings>('PATCH', `/api/clinic/settings?clinicId=${settings.clinicId}`, { locale: choice || null });
+      setSaved(true);
+    } catch (err) {
+      setError(err as ApiError);
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  return (
+    <form method="post" onSubmit={submit} noValidate className="card space-y-4">
+      <h2 className="text-lg font-semibold">How dates and times are written</h2>
+      {saved && (
+        <Alert tone="success" live>
+          Saved. Pages show dates this way from the next one you open.
+        </Alert>
+      )}
+      {error && (
+        <Alert tone="danger" live>
+          {error.message}
+        </Alert>
+      )}
+      <div className="max-w-md">
+        <SelectField
+          label="Date format"
+          value={choice}
+          onChange={(e) => setChoice(e.target.value)}
+          help="For every page, report and e-mail of the clinic. The words stay English."
+          options={[
+            { value: '', label: `From the clinic’s time zone: ${known?.name ?? settings.defaultLocale} (${sample(settings.defaultLocale)})` },
+            ...LOCALES.map((l) => ({ value: l.tag, label: `${l.name} (${sample(l.tag)})` })),
+          ]}
+        />
+      </div>
+      <Button type="submit" busy={busy}>
+        Save the date format
+      </Button>
+    </form>
+  );
+}
+
 /** The clinic's flag thresholds, explained, with Kinloop's defaults beside them. */
 export default function ClinicSettings({ clinicId }: { clinicId: string }) {
   const [settings, reload] = useApi<Settings>(`/api/clinic/settings?clinicId=${clinicId}`);
@@ -149,6 +224,7 @@ export default function ClinicSettings({ clinicId }: { clinicId: string }) {
             <p className="max-w-prose">
               Flags point the clinic’s therapists to clients who may need a look. These thresholds decide when each flag is raised; they apply to every client of the clinic. Flags help with supervision; they do not replace clinical judgement.
             </p>
+            <DateFormatForm settings={s} />
             <ThresholdsForm settings={s} />
           </div>
         )}

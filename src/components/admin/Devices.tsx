@@ -79,8 +79,8 @@ export default function Devices({ clinicId }: { clinicId: string }) {
       id: 'actions',
       header: 'Actions',
       cell: (c) => (
-        <Button variant="secondary" aria-label={`Change device ${c.row.original.serial}`} onClick={() => edit(c.row.original)}>
-          Change
+        <Button variant="secondary" onClick={() => edit(c.row.original)}>
+          Change<span className="sr-only"> device {c.row.original.serial}</span>
         </Button>
       ),
     }),

@@ -114,11 +114,11 @@ export default function ImportProfiles({ clinicId }: { clinicId: string }) {
                         </p>
                       </div>
                       <div className="flex flex-wrap gap-2">
-                        <Button variant="secondary" aria-label={`Edit ${p.name}`} onClick={() => start(p)}>
-                          Edit
+                        <Button variant="secondary" onClick={() => start(p)}>
+                          Edit<span className="sr-only"> {p.name}</span>
                         </Button>
-                        <Button variant="quiet" aria-label={`Archive ${p.name}`} onClick={() => setConfirming(p.id)} aria-expanded={confirming === p.id}>
-                          Archive
+                        <Button variant="quiet" onClick={() => setConfirming(p.id)} aria-expanded={confirming === p.id}>
+                          Archive<span className="sr-only"> {p.name}</span>
                         </Button>
                       </div>
                     </div>

@@ -2,6 +2,7 @@ import { useApi } from '../api';
 import { Button } from '../ui/Button';
 import { EmptyState } from '../ui/EmptyState';
 import { Loaded } from '../ui/Loading';
+import { formatDateTime } from '../../lib/time/format';
 
 interface Message {
   id: string;
@@ -11,7 +12,7 @@ interface Message {
   text: string;
 }
 
-export default function Mailbox() {
+export default function Mailbox({ locale, timeZone }: { locale: string; timeZone: string }) {
   const [mail, reload] = useApi<{ messages: Message[] }>('/api/dev/mailbox');
   return (
     <div className="space-y-4">
@@ -27,7 +28,7 @@ export default function Mailbox() {
                   <details>
                     <summary className="min-h-11 cursor-pointer">
                       <strong>{m.subject}</strong> to {m.to.join(', ')}{' '}
-                      <span className="text-sm text-ink-soft">{new Date(m.receivedAt).toLocaleString()}</span>
+                      <span className="text-sm text-ink-soft">{formatDateTime(m.receivedAt, locale, timeZone)}</span>
                     </summary>
                     <pre className="mt-3 overflow-x-auto text-sm whitespace-pre-wrap">{m.text}</pre>
                   </details>

@@ -7,6 +7,7 @@ import { DataTable } from '../ui/DataTable';
 import { EmptyState } from '../ui/EmptyState';
 import { Loaded } from '../ui/Loading';
 import InviteForm from './InviteForm';
+import { formatDateTime } from '../../lib/time/format';
 
 interface Staff {
   userId: string;
@@ -26,7 +27,7 @@ interface Invitation {
 
 const ROLE_WORDS = { admin: 'Administrator', therapist: 'Therapist', client: 'Client', carer: 'Carer' } as Record<string, string>;
 
-export default function StaffManager({ selfId }: { selfId: string }) {
+export default function StaffManager({ selfId, locale, timeZone }: { selfId: string; locale: string; timeZone: string }) {
   const [staff, reloadStaff] = useApi<{ staff: Staff[] }>('/api/staff');
   const [invites, reloadInvites] = useApi<{ invitations: Invitation[] }>('/api/invitations');
   const [error, setError] = useState<ApiError | null>(null);
@@ -71,18 +72,19 @@ export default function StaffManager({ selfId }: { selfId: string }) {
             <Button
               variant="secondary"
               busy={busyId === s.userId}
-              aria-label={s.role === 'admin' ? `Make ${s.name} a therapist` : `Make ${s.name} an administrator`}
               onClick={() => change(s.userId, { role: s.role === 'admin' ? 'therapist' : 'admin' })}
             >
+              {/* The visible words start the accessible name, so a voice user can say them. */}
               {s.role === 'admin' ? 'Make therapist' : 'Make administrator'}
+              <span className="sr-only">: {s.name}</span>
             </Button>
             <Button
               variant={s.disabled ? 'secondary' : 'danger'}
               busy={busyId === s.userId}
-              aria-label={s.disabled ? `Enable ${s.name}` : `Disable ${s.name}`}
               onClick={() => change(s.userId, { disabled: !s.disabled })}
             >
               {s.disabled ? 'Enable account' : 'Disable account'}
+              <span className="sr-only">: {s.name}</span>
             </Button>
           </div>
         );
@@ -119,7 +121,7 @@ export default function StaffManager({ selfId }: { selfId: string }) {
                       <span>
                         <strong>{i.email}</strong> as {ROLE_WORDS[i.role]?.toLowerCase()}
                         {i.clientName ? ` of ${i.clientName}` : ''}
-                        <span className="block text-sm text-ink-soft">Expires {new Date(i.expiresAt).toLocaleDateString()}</span>
+                        <span className="block text-sm text-ink-soft">Expires {formatDateTime(i.expiresAt, locale, timeZone)}</span>
                       </span>
                       <Button variant="quiet" onClick={() => revoke(i.id)}>
                         Withdraw invitation to {i.email}

@@ -1,5 +1,6 @@
 import { useApi } from '../api';
-import { instantDayTime, localDate } from '../rider/dates';
+import { formatDateTime } from '../../lib/time/format';
+import { localDate } from '../../lib/time/local-date';
 import type { ClientChoice, WeekData } from '../rider/types';
 import { WeekDots } from '../rider/WeekDots';
 import { nextDueWords, shortNote, weekHeadline } from '../rider/week-words';
@@ -50,7 +51,7 @@ function ClientCard({ client, locale }: { client: ClientChoice; locale: string }
                 {due.headline}
                 {due.detail && <span className="block text-base text-ink-soft">{due.detail}</span>}
               </p>
-              <p>{w.lastUploadAt ? `Ride files last uploaded ${instantDayTime(w.lastUploadAt, locale, w.timeZone)}.` : 'No ride files uploaded yet.'}</p>
+              <p>{w.lastUploadAt ? `Ride files last uploaded ${formatDateTime(w.lastUploadAt, locale, w.timeZone, 'weekdayDayMonth')}.` : 'No ride files uploaded yet.'}</p>
             </div>
           );
         }}

@@ -5,8 +5,11 @@ import { api, ApiError, useApi } from '../api';
 import { ClientSearch, useClientChoices, type ClientChoices } from '../clients/client-choices';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
+import { FieldLink } from '../ui/FieldLink';
+import CautionBanner from '../ui/CautionBanner';
 import { EmptyState } from '../ui/EmptyState';
 import { SelectField, TextAreaField } from '../ui/Field';
+import { NAMED_CHANNELS } from '../../lib/rides/types';
 import { Loaded } from '../ui/Loading';
 import { bodyFromDraft, emptyDraft, FORM_ERROR, NUMBER_FIELDS, type CheckDraft, type DraftErrors, type NumberKey } from './check-draft';
 import { CheckOutcome, type Outcome } from './CheckOutcome';
@@ -14,7 +17,9 @@ import { CheckboxList, EffortScale, fieldId, Group, NumberInput } from './fields
 import { RecentChecks } from './RecentChecks';
 import { SkinSites } from './SkinSites';
 import type { CheckClient, SavedCheck } from './types';
-import { capitalise } from './words';
+import { capitalise } from '../../lib/format/words';
+import { formatDateTime } from '../../lib/time/format';
+import type { SessionsPage } from '../client/types';
 
 const COMMENT_ID = 'check-comment';
 const BP_KEYS = Object.keys(NUMBER_FIELDS) as NumberKey[];
@@ -77,7 +82,9 @@ function ChecksForClients({
       )}
       {client ? (
         <>
-          <CheckEntry key={client.id} client={client} self={self} onSaved={() => setVersion((v) => v + 1)} />
+          <CheckEntry key={client.id} client={client} self={self} locale={locale} onSaved={() => setVersion((v) => v + 1)} />
+          {/* Right under the form rather than above it: the caution's disclosure would be one more stop before the first reading. */}
+          <CautionBanner compact />
           <section aria-labelledby="recent-h" className="space-y-3">
             <h2 id="recent-h" className="text-xl">
               {self ? 'Your recent checks' : `Recent checks for ${client.name}`}
@@ -92,8 +99,12 @@ function ChecksForClients({
   );
 }
 
-function CheckEntry({ client, self, onSaved }: { client: CheckClient; self: boolean; onSaved: () => void }) {
+function CheckEntry({ client, self, locale, onSaved }: { client: CheckClient; self: boolean; locale: string; onSaved: () => void }) {
   const [draft, setDraft] = useState<CheckDraft>(emptyDraft);
+  // "Nothing of these" as one choice that folds each list away: the short path for the usual, uneventful ride.
+  const [noSigns, setNoSigns] = useState(false);
+  const [skinNormal, setSkinNormal] = useState(false);
+  const [sessions] = useApi<SessionsPage>(`/api/clients/${client.id}/sessions?limit=5`);
   const [errors, setErrors] = useState<DraftErrors>({});
   const [outcome, setOutcome] = useState<Outcome | null>(null);
   const [busy, setBusy] = useState(false);
@@ -116,7 +127,11 @@ function CheckEntry({ client, self, onSaved }: { client: CheckClient; self: bool
   function showErrors(found: DraftErrors) {
     setErrors(found);
     if (Object.keys(found).some((k) => BP_KEYS.includes(k as NumberKey) || k.startsWith('bp'))) setBpOpen(true);
-    if (Object.keys(found).some((k) => k.startsWith('skin'))) setSkinOpen(true);
+    if (Object.keys(found).some((k) => k.startsWith('skin'))) {
+      setSkinOpen(true);
+      setSkinNormal(false);
+    }
+    if (Object.keys(found).some((k) => k.startsWith('adSymptoms') || k.startsWith('otherEvents'))) setNoSigns(false);
     setFocusTarget('errors');
   }
 
@@ -130,6 +145,8 @@ function CheckEntry({ client, self, onSaved }: { client: CheckClient; self: bool
       const saved = await api<SavedCheck>('POST', `/api/clients/${client.id}/checks`, body);
       setOutcome({ clientName: client.name, self, evaluation: saved.evaluation });
       setDraft(emptyDraft());
+      setNoSigns(false);
+      setSkinNormal(false);
       setFocusTarget('outcome');
       onSaved();
     } catch (err) {
@@ -141,49 +158,91 @@ function CheckEntry({ client, self, onSaved }: { client: CheckClient; self: bool
     }
   }
 
+  // Blood pressure before and after is the heart of a check; the other readings come after the first Save.
   const bloodPressure = (
     <div className="space-y-6">
       <Group id="check-before" title="Before the ride" hint="The top (systolic) and bottom (diastolic) numbers from the blood pressure monitor.">
         <div className="grid grid-cols-2 items-end gap-4 sm:flex sm:flex-wrap">
           <NumberInput field="bpBefore.systolic" value={draft.numbers['bpBefore.systolic']} error={errors['bpBefore.systolic']} onChange={setNumber} />
           <NumberInput field="bpBefore.diastolic" value={draft.numbers['bpBefore.diastolic']} error={errors['bpBefore.diastolic'] ?? errors.bpBefore} onChange={setNumber} />
-          <NumberInput field="heartRateBefore" value={draft.numbers.heartRateBefore} error={errors.heartRateBefore} onChange={setNumber} />
-        </div>
-      </Group>
-      <Group id="check-during" title="During the ride (if taken)">
-        <div className="grid grid-cols-2 items-end gap-4 sm:flex sm:flex-wrap">
-          <NumberInput field="bpDuring.systolic" value={draft.numbers['bpDuring.systolic']} error={errors['bpDuring.systolic']} onChange={setNumber} />
-          <NumberInput field="bpDuring.diastolic" value={draft.numbers['bpDuring.diastolic']} error={errors['bpDuring.diastolic'] ?? errors.bpDuring} onChange={setNumber} />
         </div>
       </Group>
       <Group id="check-after" title="After the ride">
         <div className="grid grid-cols-2 items-end gap-4 sm:flex sm:flex-wrap">
           <NumberInput field="bpAfter.systolic" value={draft.numbers['bpAfter.systolic']} error={errors['bpAfter.systolic']} onChange={setNumber} />
           <NumberInput field="bpAfter.diastolic" value={draft.numbers['bpAfter.diastolic']} error={errors['bpAfter.diastolic'] ?? errors.bpAfter} onChange={setNumber} />
-          <NumberInput field="heartRateAfter" value={draft.numbers.heartRateAfter} error={errors.heartRateAfter} onChange={setNumber} />
-          <NumberInput field="bpAfterMinutes" value={draft.numbers.bpAfterMinutes} error={errors.bpAfterMinutes} onChange={setNumber} />
         </div>
       </Group>
     </div>
   );
+  const moreReadings = (
+    <Group id="check-more" title="More readings, if taken">
+      <div className="grid grid-cols-2 items-end gap-4 sm:flex sm:flex-wrap">
+        <NumberInput field="heartRateBefore" value={draft.numbers.heartRateBefore} error={errors.heartRateBefore} onChange={setNumber} />
+        <NumberInput field="heartRateAfter" value={draft.numbers.heartRateAfter} error={errors.heartRateAfter} onChange={setNumber} />
+        <NumberInput field="bpAfterMinutes" value={draft.numbers.bpAfterMinutes} error={errors.bpAfterMinutes} onChange={setNumber} />
+      </div>
+      <div id="check-during" className="grid grid-cols-2 items-end gap-4 sm:flex sm:flex-wrap">
+        <NumberInput field="bpDuring.systolic" value={draft.numbers['bpDuring.systolic']} error={errors['bpDuring.systolic']} onChange={setNumber} />
+        <NumberInput field="bpDuring.diastolic" value={draft.numbers['bpDuring.diastolic']} error={errors['bpDuring.diastolic'] ?? errors.bpDuring} onChange={setNumber} />
+      </div>
+    </Group>
+  );
   const symptoms = (
     <Group
       id="check-symptoms"
-      title={self ? 'Did you notice any of these warning signs?' : 'Warning signs of autonomic dysreflexia'}
+      title={self ? 'Did you notice any warning signs, or did anything else happen?' : 'Warning signs of autonomic dysreflexia, and anything else that happened'}
       hint={self ? 'Tick any you have now or had during the ride.' : 'Tick any the rider has now or had during the ride.'}
     >
-      <CheckboxList name="adSymptoms" options={AD_SYMPTOMS} labels={capitalised(AD_SYMPTOM_LABELS)} chosen={draft.adSymptoms} onChange={(adSymptoms) => setDraft((d) => ({ ...d, adSymptoms }))} />
-    </Group>
-  );
-  const events = (
-    <Group id="check-events" title={self ? 'Did anything else happen?' : 'Anything else that happened'}>
-      <CheckboxList name="otherEvents" options={OTHER_EVENTS} labels={capitalised(OTHER_EVENT_LABELS)} chosen={draft.otherEvents} onChange={(otherEvents) => setDraft((d) => ({ ...d, otherEvents }))} />
+      <OneChoice
+        checked={noSigns}
+        onChange={(on) => {
+          setNoSigns(on);
+          if (on) setDraft((d) => ({ ...d, adSymptoms: [], otherEvents: [] }));
+        }}
+      >
+        {self ? 'None: no warning signs and nothing else happened' : 'None: no warning signs and nothing else happened'}
+      </OneChoice>
+      {!noSigns && (
+        <div className="space-y-4">
+          <CheckboxList name="adSymptoms" options={AD_SYMPTOMS} labels={capitalised(AD_SYMPTOM_LABELS)} chosen={draft.adSymptoms} onChange={(adSymptoms) => setDraft((d) => ({ ...d, adSymptoms }))} />
+          <div id="check-events" className="space-y-2">
+            <p className="font-semibold">{self ? 'Anything else?' : 'Anything else'}</p>
+            <CheckboxList name="otherEvents" options={OTHER_EVENTS} labels={capitalised(OTHER_EVENT_LABELS)} chosen={draft.otherEvents} onChange={(otherEvents) => setDraft((d) => ({ ...d, otherEvents }))} />
+          </div>
+        </div>
+      )}
     </Group>
   );
   const skin = (
     <Group id="check-skin" title="Skin at the electrode sites" hint="Look at the skin under each electrode after the ride.">
-      <SkinSites value={draft.skin} onChange={(s) => setDraft((d) => ({ ...d, skin: s }))} />
+      <OneChoice
+        checked={skinNormal}
+        onChange={(on) => {
+          setSkinNormal(on);
+          setDraft((d) => ({ ...d, skin: on ? Object.fromEntries(NAMED_CHANNELS.map((site) => [site, 'normal'])) : {} }));
+        }}
+      >
+        Skin normal at every site
+      </OneChoice>
+      {!skinNormal && <SkinSites value={draft.skin} onChange={(s) => setDraft((d) => ({ ...d, skin: s }))} />}
     </Group>
+  );
+  const sessionChoice = (
+    <div className="max-w-md">
+      <SelectField
+        id="check-session"
+        label={self ? 'Which session was this?' : 'The session this check belongs to'}
+        optional
+        value={draft.sessionId}
+        onChange={(e) => setDraft((d) => ({ ...d, sessionId: e.target.value }))}
+        error={errors.sessionId}
+        options={[
+          { value: '', label: 'Not tied to a session' },
+          ...(sessions.state === 'ready' ? sessions.data.sessions.map((s) => ({ value: s.id, label: formatDateTime(s.startedAt, locale, client.timeZone) })) : []),
+        ]}
+      />
+    </div>
   );
   const effort = <EffortScale value={draft.effort} onChange={(v) => setDraft((d) => ({ ...d, effort: v }))} self={self} />;
   const comment = (
@@ -200,6 +259,11 @@ function CheckEntry({ client, self, onSaved }: { client: CheckClient; self: bool
   );
 
   const errorList = Object.entries(errors);
+  const save = (
+    <Button type="submit" busy={busy} className="min-h-14 px-8 text-lg">
+      {busy ? 'Saving…' : 'Save check'}
+    </Button>
+  );
   return (
     <div className="space-y-6">
       {outcome && <CheckOutcome ref={outcomeHeading} outcome={outcome} />}
@@ -224,29 +288,36 @@ function CheckEntry({ client, self, onSaved }: { client: CheckClient; self: bool
           <>
             {effort}
             {symptoms}
-            {events}
             {comment}
             <Fold title="Blood pressure and heart rate" open={bpOpen} onToggle={setBpOpen}>
-              {bloodPressure}
+              <div className="space-y-6">
+                {bloodPressure}
+                {moreReadings}
+              </div>
             </Fold>
             <Fold title="Skin at the electrode sites" open={skinOpen} onToggle={setSkinOpen}>
               {skin}
             </Fold>
+            {sessionChoice}
           </>
         ) : (
           <>
             {bloodPressure}
             {symptoms}
-            {events}
             {skin}
+            {/* A save before the optional extras, so an uneventful check ends here. */}
+            <div className="flex flex-wrap items-center gap-x-4 gap-y-2 border-t border-line pt-4">
+              {save}
+              <span className="text-ink-soft">or add more readings, the effort, a comment and the session below.</span>
+            </div>
+            {moreReadings}
             {effort}
             {comment}
+            {sessionChoice}
           </>
         )}
         <p className="text-ink-soft">Kinloop keeps the time you save this as the time of the check.</p>
-        <Button type="submit" busy={busy} className="min-h-14 px-8 text-lg">
-          {busy ? 'Saving…' : 'Save check'}
-        </Button>
+        {save}
       </form>
     </div>
   );
@@ -267,23 +338,17 @@ function fieldTarget(key: string): string {
   if (key.startsWith('adSymptoms')) return 'check-symptoms';
   if (key.startsWith('otherEvents')) return 'check-events';
   if (key.startsWith('effort')) return 'check-effort';
+  if (key === 'sessionId') return 'check-session';
   return 'check-form-h';
 }
 
-function FieldLink({ target, children }: { target: string; children: ReactNode }) {
+/** One large checkbox that stands for "none of the list" or "all normal", and folds the details away when ticked. */
+function OneChoice({ checked, onChange, children }: { checked: boolean; onChange: (checked: boolean) => void; children: ReactNode }) {
   return (
-    <a
-      href={`#${target}`}
-      className="font-medium"
-      onClick={(e) => {
-        e.preventDefault();
-        const el = document.getElementById(target);
-        const focusable = el && (el.matches('input, textarea, select') ? el : el.querySelector<HTMLElement>('input, textarea, select, button'));
-        focusable?.focus();
-      }}
-    >
+    <label className="flex min-h-14 cursor-pointer items-center gap-3 rounded-lg border-2 border-lagoon bg-surface px-4 py-2 font-semibold has-[:checked]:bg-lagoon-tint">
+      <input type="checkbox" checked={checked} onChange={(e) => onChange(e.target.checked)} className="h-7 w-7 shrink-0 accent-lagoon" />
       {children}
-    </a>
+    </label>
   );
 }
 

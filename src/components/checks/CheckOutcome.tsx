@@ -76,11 +76,11 @@ const SafetyPanel = forwardRef<HTMLHeadingElement, { reasons: string[]; alerted:
       <div className="space-y-2 rounded-lg border-2 border-brick/40 bg-surface p-4">
         {alerted ? (
           <>
-            <p className="font-semibold">The clinic has been alerted: this check is now an urgent flag on the clinic’s triage list.</p>
-            <p>Kinloop is not a real-time monitor, so do not wait for a call from the clinic: work through the steps above now.</p>
+            <p className="font-semibold">{AD_SAFETY_PANEL.alerted[0]}</p>
+            <p>{AD_SAFETY_PANEL.alerted[1]}</p>
           </>
         ) : (
-          <p className="font-semibold">Kinloop is not a real-time monitor: work through the steps above now, then tell the clinic what happened.</p>
+          <p className="font-semibold">{AD_SAFETY_PANEL.notAlerted}</p>
         )}
         {reasons.map((r) => (
           <p key={r}>

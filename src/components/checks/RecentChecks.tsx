@@ -1,11 +1,14 @@
 import { useEffect, useState } from 'react';
 import { AD_SYMPTOM_LABELS, joinList, OTHER_EVENT_LABELS, SKIN_STATE_LABELS, siteLabel } from '../../lib/checks/labels';
 import { useApi } from '../api';
-import { instantDayTime } from '../rider/dates';
+import { formatDateTime } from '../../lib/time/format';
 import { EmptyState } from '../ui/EmptyState';
 import { Loaded } from '../ui/Loading';
 import type { RecentCheck } from './types';
-import { capitalise, CONDITION_WORDS, readingLine, SEVERITY_WORDS } from './words';
+import { capitalise } from '../../lib/format/words';
+import { FLAG_KIND_WORDS, FLAG_SEVERITY_WORDS } from '../../lib/flags/words';
+import type { FlagKind, FlagSeverity } from '../../lib/flags/types';
+import { readingLine } from './words';
 
 const FIRST_SHOWN = 5;
 
@@ -63,7 +66,7 @@ function CheckItem({ check, timeZone, locale }: { check: RecentCheck; timeZone: 
   return (
     <li className="card space-y-2" data-testid="recent-check">
       <div className="flex flex-wrap items-baseline justify-between gap-2">
-        <h3 className="text-lg">{instantDayTime(check.takenAt, locale, timeZone)}</h3>
+        <h3 className="text-lg">{formatDateTime(check.takenAt, locale, timeZone, 'weekdayDayMonth')}</h3>
         {check.recordedBy?.name && <p className="text-sm text-ink-soft">Recorded by {check.recordedBy.name}</p>}
       </div>
       {conditions.length > 0 && (
@@ -74,7 +77,7 @@ function CheckItem({ check, timeZone, locale }: { check: RecentCheck; timeZone: 
               className={`inline-flex items-center gap-1 rounded-full border px-3 py-1 text-sm font-semibold ${c.severity === 'urgent' ? 'border-brick bg-brick-tint text-brick' : 'border-ochre bg-ochre-tint text-ochre'}`}
             >
               <span aria-hidden="true">{c.severity === 'urgent' ? '▲' : '●'}</span>
-              {SEVERITY_WORDS[c.severity] ?? c.severity}: {CONDITION_WORDS[c.kind] ?? c.kind}
+              {FLAG_SEVERITY_WORDS[c.severity as FlagSeverity] ?? c.severity}: {FLAG_KIND_WORDS[c.kind as FlagKind] ?? c.kind}
             </li>
           ))}
         </ul>

@@ -1,17 +1,13 @@
 import { SKIN_STATES, type SkinState } from '../../lib/checks/check-input';
 import { SKIN_STATE_LABELS } from '../../lib/checks/labels';
 import { NAMED_CHANNELS } from '../../lib/rides/types';
-import { channelLabel } from '../rides/format';
-import { capitalise } from './words';
+import { channelLabel } from '../../lib/format/words';
+import { capitalise } from '../../lib/format/words';
 
 /** The skin under each of the six named electrodes, one radio group per site; a site left unchecked is not sent. */
 export function SkinSites({ value, onChange }: { value: Record<string, SkinState | ''>; onChange: (v: Record<string, SkinState | ''>) => void }) {
-  const allNormal = () => onChange(Object.fromEntries(NAMED_CHANNELS.map((site) => [site, 'normal'])));
   return (
     <div className="space-y-3">
-      <button type="button" className="btn btn-secondary" onClick={allNormal}>
-        Mark all six sites normal
-      </button>
       <div className="grid gap-3 md:grid-cols-2">
         {NAMED_CHANNELS.map((site) => (
           <fieldset key={site} className="rounded-lg border-2 border-line bg-surface p-3" data-site={site}>

@@ -40,11 +40,13 @@ export interface CheckDraft {
   skin: Record<string, SkinState | ''>;
   effort: number | null;
   comment: string;
+  /** The session the check belongs to, or '' for none. */
+  sessionId: string;
 }
 
 export function emptyDraft(): CheckDraft {
   const numbers = Object.fromEntries(Object.keys(NUMBER_FIELDS).map((k) => [k, ''])) as Record<NumberKey, string>;
-  return { numbers, adSymptoms: [], otherEvents: [], skin: {}, effort: null, comment: '' };
+  return { numbers, adSymptoms: [], otherEvents: [], skin: {}, effort: null, comment: '', sessionId: '' };
 }
 
 /** Form-wide problems (not tied to one field) use this key. */
@@ -85,6 +87,7 @@ export function bodyFromDraft(draft: CheckDraft): { body: CheckInputBody | null;
       .map(([site, state]) => ({ site, state })),
     effort: draft.effort ?? undefined,
     comment: draft.comment.trim() || undefined,
+    sessionId: draft.sessionId || undefined,
   };
   for (const key of Object.keys(raw)) if (raw[key] === undefined) delete raw[key];
   if (Object.keys(errors).length) return { body: null, errors };

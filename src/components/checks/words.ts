@@ -1,16 +1,6 @@
 // Plain words for what a check holds, for the form, its outcome and the list of recent checks.
 import type { BloodPressure } from '../../lib/checks/check-input';
 
-export const capitalise = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
-
-export const CONDITION_WORDS: Record<string, string> = {
-  bp_rise: 'Blood pressure rise',
-  bp_drop: 'Blood pressure fall',
-  skin_concern: 'Skin concern',
-};
-
-export const SEVERITY_WORDS: Record<string, string> = { urgent: 'Urgent', review: 'Review', info: 'Info' };
-
 /** "118/76 mmHg". */
 export function pressure(bp: BloodPressure): string {
   return `${bp.systolic}/${bp.diastolic} mmHg`;

@@ -4,7 +4,8 @@ import { Bar } from 'react-chartjs-2';
 import { PALETTE } from '../palette';
 import { baseOptions } from './chart-setup';
 import { ChartFrame, type ChartTable } from './ChartFrame';
-import { dayLabel, dayMonth, mondayOfIsoWeek } from './dates';
+import { formatDate } from '../../lib/time/format';
+import { parseIsoWeek } from '../../lib/time/iso-week';
 import type { AdherenceData, AdherenceWeek } from './types';
 
 const PAUSED_DATASET = 2;
@@ -41,12 +42,12 @@ const pausedLabels: Plugin<'bar'> = {
 };
 
 /** Sessions that counted each week against the prescribed number; paused weeks are drawn as pauses, not misses. */
-export function AdherenceChart({ adherence, locale, currentIsoWeek }: { adherence: AdherenceData; locale: string; currentIsoWeek: string }) {
+export function AdherenceChart({ adherence, locale, currentIsoWeek, compact = false }: { adherence: AdherenceData; locale: string; currentIsoWeek: string; compact?: boolean }) {
   const { weeks } = adherence;
   const top = Math.max(1, ...weeks.map((w) => Math.max(w.prescribed, w.counted)));
   const data = useMemo<ChartData<'bar', (number | null)[], string>>(
     () => ({
-      labels: weeks.map((w) => dayMonth(mondayOfIsoWeek(w.isoWeek), locale)),
+      labels: weeks.map((w) => formatDate(parseIsoWeek(w.isoWeek).monday, locale, 'dayMonth')),
       datasets: [
         { label: 'Counted sessions', data: weeks.map((w) => w.counted), backgroundColor: PALETTE.lagoon, grouped: false, barPercentage: 0.5, order: 0 },
         { label: 'Prescribed', data: weeks.map((w) => (w.paused ? null : w.prescribed)), backgroundColor: PALETTE.lagoonTint, borderColor: PALETTE.lagoon, borderWidth: 2, grouped: false, barPercentage: 0.85, order: 1 },
@@ -65,7 +66,7 @@ export function AdherenceChart({ adherence, locale, currentIsoWeek }: { adherenc
         tooltip: {
           filter: (item) => item.parsed.y !== null,
           callbacks: {
-            title: (items) => (items.length ? `Week of ${dayLabel(mondayOfIsoWeek(weeks[items[0].dataIndex].isoWeek), locale)}` : ''),
+            title: (items) => (items.length ? `Week of ${formatDate(parseIsoWeek(weeks[items[0].dataIndex].isoWeek).monday, locale, 'day')}` : ''),
             label: (item) => (item.datasetIndex === PAUSED_DATASET ? 'Paused: neither met nor missed' : `${item.dataset.label}: ${item.parsed.y}`),
             afterBody: (items) => (items.length ? status(weeks[items[0].dataIndex], currentIsoWeek) : ''),
           },
@@ -87,12 +88,14 @@ export function AdherenceChart({ adherence, locale, currentIsoWeek }: { adherenc
     columns: ['Week of', 'Prescribed', 'Counted', 'Too short', 'Week'],
     rows: weeks.map((w) => ({
       key: w.isoWeek,
-      cells: [dayLabel(mondayOfIsoWeek(w.isoWeek), locale), w.paused ? '—' : String(w.prescribed), String(w.counted), String(w.short), status(w, currentIsoWeek)],
+      cells: [formatDate(parseIsoWeek(w.isoWeek).monday, locale, 'day'), w.paused ? '—' : String(w.prescribed), String(w.counted), String(w.short), status(w, currentIsoWeek)],
     })),
   };
   return (
-    <ChartFrame id="adherence-chart" title="Sessions per week" summary={summary} table={table}>
-      <Bar data={data} options={options} plugins={[pausedLabels]} role="img" aria-label="Bar chart of counted sessions per week against the prescribed number, with paused weeks marked; the sentence above and the table below give the numbers." />
+    <ChartFrame id="adherence-chart" title="Sessions per week" summary={summary} table={table} compact={compact}>
+      {weeks.some((w) => w.prescribed > 0 || w.counted > 0 || w.paused) ? (
+        <Bar data={data} options={options} plugins={[pausedLabels]} role="img" aria-label="Bar chart of counted sessions per week against the prescribed number, with paused weeks marked; the sentence above and the table below give the numbers." />
+      ) : null}
     </ChartFrame>
   );
 }

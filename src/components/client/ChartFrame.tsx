@@ -11,7 +11,23 @@ export interface ChartTable {
  * (visible, and the canvas's accessible name points to it) and the numbers as a
  * table behind a disclosure.
  */
-export function ChartFrame({ id, title, summary, table, children }: { id: string; title: string; summary: string; table: ChartTable; children: ReactNode }) {
+export function ChartFrame({
+  id,
+  title,
+  summary,
+  table,
+  compact = false,
+  children,
+}: {
+  id: string;
+  title: string;
+  summary: string;
+  table: ChartTable;
+  /** The overview's small charts. */
+  compact?: boolean;
+  /** The chart itself; null when there is nothing to draw, so no empty axes stand beside the sentence that says so. */
+  children: ReactNode | null;
+}) {
   return (
     <section aria-labelledby={`${id}-h`} className="card flex min-w-0 flex-col gap-3">
       <h3 id={`${id}-h`} className="text-lg">
@@ -20,7 +36,8 @@ export function ChartFrame({ id, title, summary, table, children }: { id: string
       <p id={`${id}-summary`} className="text-sm text-ink-soft">
         {summary}
       </p>
-      <div className="relative h-64">{children}</div>
+      {children && <div className={`relative ${compact ? 'h-44' : 'h-64'}`}>{children}</div>}
+      {table.rows.length > 0 && (
       <details className="group">
         <summary className="inline-flex min-h-12 cursor-pointer items-center font-medium text-lagoon-dark">The numbers behind this chart</summary>
         <div className="mt-2 max-h-96 overflow-auto rounded-lg border border-line" role="region" aria-label={table.caption} tabIndex={0}>
@@ -45,6 +62,7 @@ export function ChartFrame({ id, title, summary, table, children }: { id: string
           </table>
         </div>
       </details>
+      )}
     </section>
   );
 }

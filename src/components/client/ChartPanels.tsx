@@ -6,16 +6,16 @@ import { DurationChart } from './DurationChart';
 import { PowerChart } from './PowerChart';
 import type { AdherenceData, TrendsData } from './types';
 
-export function TrendCharts({ trends, locale, timeZone }: { trends: TrendsData; locale: string; timeZone: string }) {
+export function TrendCharts({ trends, locale, timeZone, compact }: { trends: TrendsData; locale: string; timeZone: string; compact: boolean }) {
   return (
     <>
-      <PowerChart trends={trends} locale={locale} timeZone={timeZone} />
-      <DurationChart trends={trends} locale={locale} timeZone={timeZone} />
-      <CurrentPerWattChart trends={trends} locale={locale} timeZone={timeZone} />
+      <PowerChart trends={trends} locale={locale} timeZone={timeZone} compact={compact} />
+      <DurationChart trends={trends} locale={locale} timeZone={timeZone} compact={compact} />
+      <CurrentPerWattChart trends={trends} locale={locale} timeZone={timeZone} compact={compact} />
     </>
   );
 }
 
-export function WeeksChart({ adherence, locale, currentIsoWeek }: { adherence: AdherenceData; locale: string; currentIsoWeek: string }) {
-  return <AdherenceChart adherence={adherence} locale={locale} currentIsoWeek={currentIsoWeek} />;
+export function WeeksChart({ adherence, locale, currentIsoWeek, compact }: { adherence: AdherenceData; locale: string; currentIsoWeek: string; compact: boolean }) {
+  return <AdherenceChart adherence={adherence} locale={locale} currentIsoWeek={currentIsoWeek} compact={compact} />;
 }

@@ -12,8 +12,8 @@ const drawing = <p role="status" className="py-6 text-ink-soft">Drawing the char
 
 const TREND_WEEKS = 26;
 
-/** The four progress charts of the client page. */
-export default function ClientCharts({ clientId, locale, timeZone, currentIsoWeek }: { clientId: string; locale: string; timeZone: string; currentIsoWeek: string }) {
+/** The four headline trends of the client's overview, each with its sentence and its numbers as a table. */
+export default function ClientCharts({ clientId, locale, timeZone, currentIsoWeek, compact = false }: { clientId: string; locale: string; timeZone: string; currentIsoWeek: string; compact?: boolean }) {
   // Half a year of sessions: the charts stay readable and the answer the same size after years of riding.
   const [trends, reloadTrends] = useApi<TrendsData>(`/api/clients/${clientId}/trends?weeks=${TREND_WEEKS}`);
   const [adherence, reloadAdherence] = useApi<AdherenceData>(`/api/clients/${clientId}/adherence?weeks=12`);
@@ -25,7 +25,7 @@ export default function ClientCharts({ clientId, locale, timeZone, currentIsoWee
         {(t) =>
           t.sessions.length ? (
             <Suspense fallback={drawing}>
-              <TrendCharts trends={t} locale={locale} timeZone={timeZone} />
+              <TrendCharts trends={t} locale={locale} timeZone={timeZone} compact={compact} />
             </Suspense>
           ) : (
             <div className="lg:col-span-2">
@@ -37,7 +37,7 @@ export default function ClientCharts({ clientId, locale, timeZone, currentIsoWee
       <Loaded value={adherence} reload={reloadAdherence} label="the weekly sessions">
         {(a) => (
           <Suspense fallback={drawing}>
-            <WeeksChart adherence={a} locale={locale} currentIsoWeek={currentIsoWeek} />
+            <WeeksChart adherence={a} locale={locale} currentIsoWeek={currentIsoWeek} compact={compact} />
           </Suspense>
         )}
       </Loaded>

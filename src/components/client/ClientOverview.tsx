@@ -1,7 +1,7 @@
 import { useApi } from '../api';
 import { Loaded } from '../ui/Loading';
 import { useOnProgramChange } from './changes';
-import { dayLabel } from './dates';
+import { formatDate } from '../../lib/time/format';
 import { doseSummary, riding } from './prescription-wording';
 import type { AdherenceData, PrescriptionData } from './types';
 
@@ -18,7 +18,7 @@ function Figure({ label, value, detail }: { label: string; value: string; detail
 }
 
 /** The program at a glance: the prescription in effect, the streak and the last four weeks' adherence. */
-export default function ClientOverview({ clientId, locale }: { clientId: string; locale: string }) {
+export default function ClientOverview({ clientId, locale, prescriptionHref }: { clientId: string; locale: string; prescriptionHref: string }) {
   const [prescription, reloadPrescription] = useApi<PrescriptionData>(`/api/clients/${clientId}/prescription`);
   const [adherence, reloadAdherence] = useApi<AdherenceData>(`/api/clients/${clientId}/adherence?weeks=12`);
   useOnProgramChange(reloadPrescription);
@@ -36,7 +36,7 @@ export default function ClientOverview({ clientId, locale }: { clientId: string;
                     <span className="block font-semibold">{doseSummary(current)}</span>
                     {riding(current) && <span className="block">{riding(current)}</span>}
                     <span className="block text-sm text-ink-soft">
-                      Version {current.version}, since {dayLabel(current.effectiveFrom, locale)}
+                      Version {current.version}, since {formatDate(current.effectiveFrom, locale, 'day')}
                     </span>
                   </>
                 ) : (
@@ -44,10 +44,10 @@ export default function ClientOverview({ clientId, locale }: { clientId: string;
                 )}
                 {upcoming.map((u) => (
                   <span key={u.id} className="mt-1 block text-sm">
-                    From {dayLabel(u.effectiveFrom, locale)}: {doseSummary(u)} (version {u.version})
+                    From {formatDate(u.effectiveFrom, locale, 'day')}: {doseSummary(u)} (version {u.version})
                   </span>
                 ))}
-                <a href="#prescription" className="mt-1 inline-flex min-h-12 items-center font-medium">
+                <a href={prescriptionHref} className="mt-1 inline-flex min-h-12 items-center font-medium">
                   Prescription details
                 </a>
               </>

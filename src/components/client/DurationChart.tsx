@@ -1,17 +1,17 @@
 import type { ChartData, ChartOptions } from 'chart.js';
 import { useMemo } from 'react';
 import { Chart } from 'react-chartjs-2';
-import { number } from '../rides/format';
+import { minutes } from '../../lib/format/numbers';
 import { PALETTE } from '../palette';
 import { baseOptions } from './chart-setup';
 import { ChartFrame, type ChartTable } from './ChartFrame';
-import { instantLabel, shortDay } from './dates';
+import { formatDateTime, formatInstantDate } from '../../lib/time/format';
 import type { TrendsData } from './types';
 
-const min = (s: number | null) => (s === null ? '—' : `${number(s / 60, 0)} min`);
 const toMinutes = (s: number | null) => (s === null ? null : Math.round((s / 60) * 10) / 10);
 
-function sentence(trends: TrendsData): string {
+function sentence(trends: TrendsData, locale: string): string {
+  const min = (s: number | null) => minutes(s, locale);
   const { sessions } = trends;
   if (!sessions.length) return 'No sessions yet.';
   const recent = sessions.slice(-10);
@@ -24,11 +24,12 @@ function sentence(trends: TrendsData): string {
 }
 
 /** Each session's duration as a bar, against the prescribed minutes and the point from which a session counts. */
-export function DurationChart({ trends, locale, timeZone }: { trends: TrendsData; locale: string; timeZone: string }) {
+export function DurationChart({ trends, locale, timeZone, compact = false }: { trends: TrendsData; locale: string; timeZone: string; compact?: boolean }) {
   const { sessions, thresholds } = trends;
+  const min = (s: number | null) => minutes(s, locale);
   const data = useMemo<ChartData<'bar' | 'line', (number | null)[], string>>(
     () => ({
-      labels: sessions.map((s) => shortDay(s.startedAt, locale, timeZone)),
+      labels: sessions.map((s) => formatInstantDate(s.startedAt, locale, timeZone, 'dayMonth')),
       datasets: [
         { type: 'line', label: 'Prescribed minutes', data: sessions.map((s) => toMinutes(s.targetS)), borderColor: PALETTE.ink, backgroundColor: PALETTE.ink, borderWidth: 2, pointRadius: 0, stepped: 'middle', order: 0 },
         {
@@ -58,8 +59,8 @@ export function DurationChart({ trends, locale, timeZone }: { trends: TrendsData
         tooltip: {
           filter: (item) => item.parsed.y !== null,
           callbacks: {
-            title: (items) => (items.length ? instantLabel(sessions[items[0].dataIndex].startedAt, locale, timeZone) : ''),
-            label: (item) => `${item.dataset.label}: ${number(item.parsed.y, 0)} min`,
+            title: (items) => (items.length ? formatDateTime(sessions[items[0].dataIndex].startedAt, locale, timeZone, 'day') : ''),
+            label: (item) => `${item.dataset.label}: ${min(item.parsed.y === null ? null : item.parsed.y * 60)}`,
             afterBody: (items) => (items.length ? `Active: ${min(sessions[items[0].dataIndex].activeS)}` : ''),
           },
         },
@@ -71,11 +72,11 @@ export function DurationChart({ trends, locale, timeZone }: { trends: TrendsData
     columns: ['Session', 'Duration', 'Active', 'Prescribed', 'Counted'],
     rows: sessions.map((s) => ({
       key: s.sessionId,
-      cells: [instantLabel(s.startedAt, locale, timeZone), min(s.durationS), min(s.activeS), min(s.targetS), s.counted ? 'Yes' : 'No, too short'],
+      cells: [formatDateTime(s.startedAt, locale, timeZone, 'day'), min(s.durationS), min(s.activeS), min(s.targetS), s.counted ? 'Yes' : 'No, too short'],
     })),
   };
   return (
-    <ChartFrame id="duration-chart" title="Session length against the prescription" summary={sentence(trends)} table={table}>
+    <ChartFrame id="duration-chart" title="Session length against the prescription" compact={compact} summary={sentence(trends, locale)} table={table}>
       <Chart type="bar" data={data} options={options} role="img" aria-label="Bar chart of each session’s minutes against the prescribed minutes; the sentence above and the table below give the numbers." />
     </ChartFrame>
   );

@@ -5,7 +5,9 @@ import { Button } from '../ui/Button';
 import { EmptyState } from '../ui/EmptyState';
 import { TextAreaField, TextField } from '../ui/Field';
 import { Loaded } from '../ui/Loading';
-import { addDays, dayLabel, instantLabel } from './dates';
+import { formatDate, formatDateTime } from '../../lib/time/format';
+import { addDays } from '../../lib/time/local-date';
+import { flagReason } from '../../lib/flags/reason';
 import { FLAG_KIND_WORDS, FLAG_SEVERITY_WORDS } from '../../lib/flags/words';
 import { eventLabel, isLive, SEVERITY_TONES, STATE_LABELS } from './flag-labels';
 import type { FlagWithHistory } from './types';
@@ -19,7 +21,9 @@ interface Shared {
   today: string;
 }
 
+/** The three actions; their visible words name the flag's kind, so a voice user can tell one flag's buttons from another's. */
 function FlagActions({ flag, today, onDone }: { flag: FlagWithHistory; today: string; onDone: (message: string) => void }) {
+  const kind = FLAG_KIND_WORDS[flag.kind].toLowerCase();
   const [note, setNote] = useState('');
   const [until, setUntil] = useState(addDays(today, 7));
   const [busy, setBusy] = useState<Action | null>(null);
@@ -41,7 +45,7 @@ function FlagActions({ flag, today, onDone }: { flag: FlagWithHistory; today: st
   return (
     <form method="post" noValidate onSubmit={(e: FormEvent) => e.preventDefault()}>
       <fieldset className="space-y-3 rounded-lg border border-line p-4">
-        <legend className="px-1 font-semibold">Act on this flag</legend>
+        <legend className="px-1 font-semibold">Act on the {kind} flag</legend>
         {error && (
           <Alert tone="danger" live>
             {error.message}
@@ -51,11 +55,11 @@ function FlagActions({ flag, today, onDone }: { flag: FlagWithHistory; today: st
         <div className="flex flex-wrap items-end gap-3">
           {flag.state === 'open' && (
             <Button busy={busy === 'acknowledge'} disabled={busy !== null} onClick={() => act('acknowledge')}>
-              Acknowledge
+              Acknowledge {kind}
             </Button>
           )}
           <Button variant={flag.state === 'open' ? 'secondary' : 'primary'} busy={busy === 'resolve'} disabled={busy !== null} onClick={() => act('resolve')}>
-            Resolve
+            Resolve {kind}
           </Button>
         </div>
         <div className="flex flex-wrap items-end gap-3">
@@ -63,7 +67,7 @@ function FlagActions({ flag, today, onDone }: { flag: FlagWithHistory; today: st
             <TextField label="Snooze until" type="date" min={addDays(today, 1)} value={until} onChange={(e) => setUntil(e.target.value)} error={error?.field('until')} />
           </div>
           <Button variant="secondary" busy={busy === 'snooze'} disabled={busy !== null} onClick={() => act('snooze')}>
-            Snooze
+            Snooze {kind}
           </Button>
         </div>
       </fieldset>
@@ -81,12 +85,12 @@ function FlagCard({ flag, locale, timeZone, today, onDone }: Shared & { flag: Fl
         </h3>
         <span className={`rounded-full border px-3 py-0.5 text-sm font-semibold ${SEVERITY_TONES[flag.severity]}`}>{FLAG_SEVERITY_WORDS[flag.severity]}</span>
         <span className="rounded-full border border-line-strong bg-surface px-3 py-0.5 text-sm font-semibold">{STATE_LABELS[flag.state]}</span>
-        {snoozed && <span className="rounded-full border border-slate bg-slate-tint px-3 py-0.5 text-sm font-semibold text-slate">Snoozed until {dayLabel(flag.snoozedUntil!, locale)}</span>}
+        {snoozed && <span className="rounded-full border border-slate bg-slate-tint px-3 py-0.5 text-sm font-semibold text-slate">Snoozed until {formatDate(flag.snoozedUntil!, locale, 'day')}</span>}
       </div>
-      <p>{flag.reason}</p>
+      <p>{flagReason(flag, locale)}</p>
       <p className="text-sm text-ink-soft">
-        Raised {instantLabel(flag.raisedAt, locale, timeZone)}
-        {flag.clearedAt && `; the condition cleared ${instantLabel(flag.clearedAt, locale, timeZone)}`}
+        Raised {formatDateTime(flag.raisedAt, locale, timeZone, 'day')}
+        {flag.clearedAt && `; the condition cleared ${formatDateTime(flag.clearedAt, locale, timeZone, 'day')}`}
       </p>
       {flag.history.length > 0 && (
         <details>
@@ -95,10 +99,11 @@ function FlagCard({ flag, locale, timeZone, today, onDone }: Shared & { flag: Fl
             {flag.history.map((h, i) => (
               <li key={i}>
                 <span className="font-medium">{eventLabel(h.action)}</span>
-                {h.action === 'snoozed' && typeof h.detail?.until === 'string' && ` until ${dayLabel(h.detail.until, locale)}`}
+                {h.action === 'snoozed' && typeof h.detail?.until === 'string' && ` until ${formatDate(h.detail.until, locale, 'day')}`}
                 <span className="text-ink-soft">
                   {' '}
-                  · {instantLabel(h.at, locale, timeZone)} · {h.by?.name ?? 'Kinloop'}
+                  {/* One raise time per flag: the history's "Raised" is the flag's own. */}
+                  · {formatDateTime(h.action === 'raised' ? flag.raisedAt : h.at, locale, timeZone, 'day')} · {h.by?.name ?? 'Kinloop'}
                 </span>
                 {h.note && <p className="mt-1 whitespace-pre-line">“{h.note}”</p>}
               </li>

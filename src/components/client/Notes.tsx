@@ -4,7 +4,7 @@ import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { TextAreaField } from '../ui/Field';
 import { Loaded } from '../ui/Loading';
-import { instantLabel } from './dates';
+import { formatDateTime } from '../../lib/time/format';
 import type { NoteView } from './types';
 
 /** Dated notes by the clinic's staff, newest first, and a form to add one. */
@@ -52,7 +52,7 @@ export default function Notes({ clientId, locale, timeZone }: { clientId: string
               {notes.map((n) => (
                 <li key={n.id} className="card">
                   <p className="text-sm text-ink-soft">
-                    {n.author.name} · <time dateTime={n.createdAt}>{instantLabel(n.createdAt, locale, timeZone)}</time>
+                    {n.author.name} · <time dateTime={n.createdAt}>{formatDateTime(n.createdAt, locale, timeZone, 'day')}</time>
                   </p>
                   <p className="mt-1 whitespace-pre-line">{n.body}</p>
                 </li>

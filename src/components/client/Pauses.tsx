@@ -5,7 +5,7 @@ import { Button } from '../ui/Button';
 import { TextField } from '../ui/Field';
 import { Loaded } from '../ui/Loading';
 import { announceProgramChange } from './changes';
-import { dayLabel } from './dates';
+import { formatDate } from '../../lib/time/format';
 import { formErrorText } from './form-errors';
 import type { PauseView } from './types';
 
@@ -21,7 +21,7 @@ function PauseItem({ pause, clientId, locale, manage, onChanged }: { pause: Paus
   const [confirming, setConfirming] = useState(false);
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<ApiError | null>(null);
-  const range = `${dayLabel(pause.from, locale)} to ${dayLabel(pause.to, locale)}`;
+  const range = `${formatDate(pause.from, locale, 'day')} to ${formatDate(pause.to, locale, 'day')}`;
   const live = pause.state === 'active' || pause.state === 'upcoming';
 
   async function end() {
@@ -96,7 +96,7 @@ export default function Pauses({ clientId, locale, today, manage }: { clientId: 
       const created = await api<PauseView>('POST', `/api/clients/${clientId}/pauses`, { from, to, reason });
       setTo('');
       setReason('');
-      changed(`Pause added: ${dayLabel(created.from, locale)} to ${dayLabel(created.to, locale)}.`);
+      changed(`Pause added: ${formatDate(created.from, locale, 'day')} to ${formatDate(created.to, locale, 'day')}.`);
     } catch (err) {
       setError(err as ApiError);
     } finally {

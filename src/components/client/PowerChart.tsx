@@ -1,26 +1,25 @@
 import type { ChartData, ChartOptions } from 'chart.js';
 import { useMemo } from 'react';
 import { Line } from 'react-chartjs-2';
-import { number } from '../rides/format';
+import { watts, wattsPerWeek } from '../../lib/format/numbers';
 import { PALETTE } from '../palette';
 import { baseOptions } from './chart-setup';
 import { ChartFrame, type ChartTable } from './ChartFrame';
-import { instantLabel, shortDay } from './dates';
+import { formatDateTime, formatInstantDate } from '../../lib/time/format';
 import type { TrendsData } from './types';
 
-const w = (v: number | null) => (v === null ? '—' : `${number(v, 1)} W`);
 
 function sentence(trends: TrendsData, locale: string, timeZone: string): string {
+  const w = (v: number | null) => watts(v, locale);
   const withPower = trends.sessions.filter((s) => s.meanPowerW !== null);
   if (!withPower.length) return 'No session has a power reading yet.';
   const first = withPower[0];
   const last = withPower[withPower.length - 1];
   const parts = [
-    `Mean power over ${withPower.length} ${withPower.length === 1 ? 'session' : 'sessions'}: ${w(first.meanPowerW)} on ${shortDay(first.startedAt, locale, timeZone)}, ${w(last.meanPowerW)} in the latest on ${shortDay(last.startedAt, locale, timeZone)}.`,
+    `Mean power over ${withPower.length} ${withPower.length === 1 ? 'session' : 'sessions'}: ${w(first.meanPowerW)} on ${formatInstantDate(first.startedAt, locale, timeZone, 'dayMonth')}, ${w(last.meanPowerW)} in the latest on ${formatInstantDate(last.startedAt, locale, timeZone, 'dayMonth')}.`,
   ];
   if (trends.powerTrendWPerWeek !== null) {
-    const slope = trends.powerTrendWPerWeek;
-    parts.push(`Over the last eight weeks it ${slope >= 0 ? 'rose' : 'fell'} by about ${number(Math.abs(slope), 1)} W a week.`);
+    parts.push(`Trend over the last eight weeks: ${wattsPerWeek(trends.powerTrendWPerWeek, locale)}.`);
   }
   if (last.baselineW !== null && last.reviewBelowW !== null) {
     parts.push(`The usual level is ${w(last.baselineW)}; below ${w(last.reviewBelowW)} (${trends.thresholds.powerDropReviewPct} % under it) a session is due for review${last.meanPowerW! < last.reviewBelowW ? ', and the latest one is below it' : ''}.`);
@@ -32,11 +31,12 @@ function sentence(trends: TrendsData, locale: string, timeZone: string): string 
 }
 
 /** Mean power per session, with the usual level and the band down to the review line shaded. */
-export function PowerChart({ trends, locale, timeZone }: { trends: TrendsData; locale: string; timeZone: string }) {
+export function PowerChart({ trends, locale, timeZone, compact = false }: { trends: TrendsData; locale: string; timeZone: string; compact?: boolean }) {
   const { sessions } = trends;
+  const w = (v: number | null) => watts(v, locale);
   const data = useMemo<ChartData<'line', (number | null)[], string>>(
     () => ({
-      labels: sessions.map((s) => shortDay(s.startedAt, locale, timeZone)),
+      labels: sessions.map((s) => formatInstantDate(s.startedAt, locale, timeZone, 'dayMonth')),
       datasets: [
         {
           label: 'Mean power',
@@ -81,7 +81,7 @@ export function PowerChart({ trends, locale, timeZone }: { trends: TrendsData; l
         ...base.plugins,
         tooltip: {
           callbacks: {
-            title: (items) => (items.length ? instantLabel(sessions[items[0].dataIndex].startedAt, locale, timeZone) : ''),
+            title: (items) => (items.length ? formatDateTime(sessions[items[0].dataIndex].startedAt, locale, timeZone, 'day') : ''),
             label: (item) => `${item.dataset.label}: ${w(item.parsed.y)}`,
             afterBody: (items) => (items.length && !sessions[items[0].dataIndex].counted ? 'This session was too short to count.' : ''),
           },
@@ -94,13 +94,15 @@ export function PowerChart({ trends, locale, timeZone }: { trends: TrendsData; l
     columns: ['Session', 'Mean power', 'Usual level', 'Review line', 'Counted'],
     rows: sessions.map((s) => ({
       key: s.sessionId,
-      cells: [instantLabel(s.startedAt, locale, timeZone), w(s.meanPowerW), w(s.baselineW), w(s.reviewBelowW), s.counted ? 'Yes' : 'No, too short'],
+      cells: [formatDateTime(s.startedAt, locale, timeZone, 'day'), w(s.meanPowerW), w(s.baselineW), w(s.reviewBelowW), s.counted ? 'Yes' : 'No, too short'],
     })),
   };
   const summary = sentence(trends, locale, timeZone);
   return (
-    <ChartFrame id="power-chart" title="Mean power per session" summary={summary} table={table}>
-      <Line data={data} options={options} role="img" aria-label="Line chart of mean power per session; the sentence above and the table below give the numbers." />
+    <ChartFrame id="power-chart" title="Mean power per session" compact={compact} summary={summary} table={table}>
+      {sessions.some((s) => s.meanPowerW !== null) ? (
+        <Line data={data} options={options} role="img" aria-label="Line chart of mean power per session; the sentence above and the table below give the numbers." />
+      ) : null}
     </ChartFrame>
   );
 }

@@ -1,12 +1,12 @@
 import { useEffect, useRef, useState } from 'react';
 import { useApi } from '../api';
 import { orderedChannels } from '../rides/channel-order';
-import { channelLabel } from '../rides/format';
+import { channelLabel } from '../../lib/format/words';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { EmptyState } from '../ui/EmptyState';
 import { Loaded } from '../ui/Loading';
-import { dayLabel } from './dates';
+import { formatDate } from '../../lib/time/format';
 import type { PrescriptionLimits } from './prescription-limits';
 import { PrescriptionForm } from './PrescriptionForm';
 import { PrescriptionHistory } from './PrescriptionHistory';
@@ -24,7 +24,7 @@ function Details({ p, locale }: { p: PrescriptionVersionView; locale: string }) 
         <div><dt className="text-sm text-ink-soft">Warm-up</dt><dd className="font-medium">{or(p.warmupMinutes, 'min')}</dd></div>
         <div><dt className="text-sm text-ink-soft">Target cadence</dt><dd className="font-medium">{p.targetCadenceRpm === null ? 'Not set' : `${p.targetCadenceRpm}${p.cadenceToleranceRpm !== null ? ` ± ${p.cadenceToleranceRpm}` : ''} rpm`}</dd></div>
         <div><dt className="text-sm text-ink-soft">Resistance level</dt><dd className="font-medium">{or(p.resistance, '')}</dd></div>
-        <div><dt className="text-sm text-ink-soft">Effective from</dt><dd className="font-medium">{dayLabel(p.effectiveFrom, locale)} (version {p.version})</dd></div>
+        <div><dt className="text-sm text-ink-soft">Effective from</dt><dd className="font-medium">{formatDate(p.effectiveFrom, locale, 'day')} (version {p.version})</dd></div>
       </dl>
       {channels.length > 0 && (
         <div className="overflow-x-auto rounded-lg border border-line" role="region" aria-label="Stimulation limits per channel" tabIndex={0}>
@@ -66,58 +66,63 @@ export default function Prescription({ clientId, manage, limits, today, locale, 
   const [editing, setEditing] = useState(false);
   const [saved, setSaved] = useState<PrescriptionVersionView | null>(null);
   const opener = useRef<HTMLDivElement>(null);
+  const savedMessage = useRef<HTMLDivElement>(null);
   const closedOnce = useRef(false);
-  // Back on the button that opened the form once it closes, so keyboard users keep their place.
+  // Once the form closes, focus goes to the success message after a save (so it is read and the
+  // next step starts from there), else back to the button that opened it: keyboard users keep their place.
   useEffect(() => {
     if (editing) closedOnce.current = true;
-    else if (closedOnce.current) opener.current?.querySelector('button')?.focus();
-  }, [editing]);
+    else if (closedOnce.current) (savedMessage.current ?? opener.current?.querySelector('button'))?.focus();
+  }, [editing, saved]);
   return (
     <Loaded value={data} reload={reload} label="the prescription">
       {(d) => (
         <div className="space-y-4">
           {saved && (
-            <Alert tone="success" live>
-              Version {saved.version} saved; it applies from {dayLabel(saved.effectiveFrom, locale)}.
-            </Alert>
+            <div ref={savedMessage} tabIndex={-1} data-testid="rx-saved">
+              <Alert tone="success" live>
+                Version {saved.version} saved; it applies from {formatDate(saved.effectiveFrom, locale, 'day')}.
+              </Alert>
+            </div>
+          )}
+          {manage && !editing && (
+            <div ref={opener}>
+              <Button
+                onClick={() => {
+                  setSaved(null);
+                  setEditing(true);
+                }}
+              >
+                {d.history.length ? 'Change the prescription' : 'Set the prescription'}
+              </Button>
+            </div>
+          )}
+          {manage && editing && (
+            <PrescriptionForm
+              clientId={clientId}
+              limits={limits}
+              latest={d.history[0] ?? null}
+              today={today}
+              locale={locale}
+              timeZone={timeZone}
+              onCancel={() => setEditing(false)}
+              onSaved={(created) => {
+                setSaved(created);
+                setEditing(false);
+                reload();
+              }}
+            />
           )}
           <div className="card space-y-4">
             <h3 className="text-lg">{d.current ? 'In effect now' : 'No prescription in effect yet'}</h3>
-            {d.current ? <Details p={d.current} locale={locale} /> : !d.upcoming.length && <EmptyState title="No prescription yet">{manage ? 'Set the first version below.' : 'The clinic has not set a prescription yet.'}</EmptyState>}
+            {d.current ? <Details p={d.current} locale={locale} /> : !d.upcoming.length && <EmptyState title="No prescription yet">{manage ? 'Set the first version with the button above.' : 'The clinic has not set a prescription yet.'}</EmptyState>}
             {d.upcoming.map((u) => (
               <div key={u.id} className="space-y-3 border-t border-line pt-4">
-                <h3 className="text-lg">Starting {dayLabel(u.effectiveFrom, locale)}</h3>
+                <h3 className="text-lg">Starting {formatDate(u.effectiveFrom, locale, 'day')}</h3>
                 <Details p={u} locale={locale} />
               </div>
             ))}
           </div>
-          {manage &&
-            (editing ? (
-              <PrescriptionForm
-                clientId={clientId}
-                limits={limits}
-                latest={d.history[0] ?? null}
-                today={today}
-                timeZone={timeZone}
-                onCancel={() => setEditing(false)}
-                onSaved={(created) => {
-                  setSaved(created);
-                  setEditing(false);
-                  reload();
-                }}
-              />
-            ) : (
-              <div ref={opener}>
-                <Button
-                  onClick={() => {
-                    setSaved(null);
-                    setEditing(true);
-                  }}
-                >
-                  {d.history.length ? 'Change the prescription' : 'Set the prescription'}
-                </Button>
-              </div>
-            ))}
           {d.history.length > 0 && (
             <details className="card" open={manage}>
               <summary className="inline-flex min-h-12 cursor-pointer items-center font-semibold">Version history ({d.history.length})</summary>

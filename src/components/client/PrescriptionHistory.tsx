@@ -1,4 +1,4 @@
-import { dayLabel, instantLabel } from './dates';
+import { formatDate, formatDateTime } from '../../lib/time/format';
 import { versionChanges } from './prescription-wording';
 import type { PrescriptionData } from './types';
 
@@ -12,12 +12,12 @@ export function PrescriptionHistory({ data, locale, timeZone }: { data: Prescrip
         <li key={v.id} className="rounded-lg border border-line bg-surface p-4">
           <p className="flex flex-wrap items-center gap-x-3 gap-y-1">
             <span className="font-semibold">Version {v.version}</span>
-            <span>from {dayLabel(v.effectiveFrom, locale)}</span>
+            <span>from {formatDate(v.effectiveFrom, locale, 'day')}</span>
             {v.id === current?.id && <span className="rounded-full border border-lagoon bg-lagoon-tint px-3 py-0.5 text-sm font-semibold text-lagoon-dark">In effect</span>}
             {upcoming.has(v.id) && <span className="rounded-full border border-slate bg-slate-tint px-3 py-0.5 text-sm font-semibold text-slate">Starts later</span>}
           </p>
           <p className="text-sm text-ink-soft">
-            Saved by {v.createdBy.name ?? 'a former staff member'} on {instantLabel(v.createdAt, locale, timeZone)}
+            Saved by {v.createdBy.name ?? 'a former staff member'} on {formatDateTime(v.createdAt, locale, timeZone, 'day')}
           </p>
           <ul className="mt-2 list-disc space-y-0.5 pl-6">
             {versionChanges(history[i + 1], v).map((c) => (

@@ -2,7 +2,7 @@
 // from the one before it, for the page header and the version history.
 import type { ChannelLimits } from '../../lib/db/tables';
 import { orderedChannels } from '../rides/channel-order';
-import { channelLabel } from '../rides/format';
+import { channelLabel } from '../../lib/format/words';
 import type { PrescriptionVersionView } from './types';
 
 type Field = 'sessionsPerWeek' | 'minutesPerSession' | 'warmupMinutes' | 'targetCadenceRpm' | 'cadenceToleranceRpm' | 'resistance';

@@ -95,6 +95,7 @@ export interface FlagWithHistory {
   raisedAt: string;
   updatedAt: string;
   reason: string;
+  evidence: unknown;
   clearedAt: string | null;
   snoozedUntil: string | null;
   history: FlagEvent[];

@@ -13,7 +13,7 @@ import { ShowMore } from '../triage/ShowMore';
 import type { ClientRow } from '../triage/types';
 
 /** The staff caseload: every client of the clinic with their open flags and figures. */
-export default function Caseload() {
+export default function Caseload({ locale }: { locale: string }) {
   const [filter, setFilter] = useState<RowFilter>(NO_FILTER);
   const [sorting, setSorting] = useState<SortingState>([{ id: 'client', desc: false }]);
   const list = usePagedRows('/api/caseload', filter, sorting);
@@ -52,7 +52,7 @@ export default function Caseload() {
               <FlagFilters counts={page.all} filter={filter} onChange={setFilter} byFlag={false} />
               {list.rows.length ? (
                 <>
-                  <ClientTable caption="Caseload" rows={list.rows} renderFlags={renderFlags} sorting={sorting} onSortingChange={setSorting} />
+                  <ClientTable caption="Caseload" rows={list.rows} renderFlags={renderFlags} sorting={sorting} onSortingChange={setSorting} locale={locale} />
                   <ShowMore list={list} noun="clients" />
                 </>
               ) : (

@@ -4,8 +4,9 @@ import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { Loaded } from '../ui/Loading';
 import { CustomRouteFields } from './CustomRouteFields';
-import { fullDate, localDate } from './dates';
-import { km, nextMilestoneText, percent, remainingText, travelledText } from './goal-words';
+import { formatDate } from '../../lib/time/format';
+import { localDate } from '../../lib/time/local-date';
+import { km, routeEnds, nextMilestoneText, percent, remainingText, travelledText } from './goal-words';
 import { ProgressBar } from './ProgressBar';
 import { draftFromPoints, routeFromDraft, type RouteDraft } from './route-draft';
 import { RouteDrawing } from './RouteDrawing';
@@ -54,7 +55,7 @@ function GoalProgressView({ goal, locale }: { goal: Goal; locale: string }) {
             {nextMilestoneText(p, locale)}
           </p>
           <p>{remainingText(p, locale)}</p>
-          <p className="text-ink-soft">Counting rides from {fullDate(goal.countFrom, locale)}.</p>
+          <p className="text-ink-soft">Counting sessions from {formatDate(goal.countFrom, locale, 'date')}.</p>
           <div>
             <h3 className="font-semibold">Milestones passed</h3>
             {p.passed.length ? (
@@ -101,8 +102,19 @@ function GoalForm({
   const [draft, setDraft] = useState<RouteDraft>(() =>
     goal && !isBuiltin ? draftFromPoints(goal.route.name, goal.route.points, newKey) : { name: '', rows: [0, 1].map(() => ({ key: newKey(), name: '', lat: '', lon: '', milestone: true })) },
   );
-  const initialCount: CountChoice = !goal ? (programStart ? 'program' : 'today') : goal.countFrom === programStart ? 'program' : goal.countFrom === today ? 'today' : 'keep';
-  const [count, setCount] = useState<CountChoice>(initialCount);
+  // A newly chosen route counts from today, so a short route is not finished the moment it is chosen; the program start stays one choice away.
+  const initialCount: CountChoice = !goal ? 'today' : goal.countFrom === programStart ? 'program' : goal.countFrom === today ? 'today' : 'keep';
+  const [count, setCountState] = useState<CountChoice>(initialCount);
+  const countTouched = useRef(false);
+  const setCount = (c: CountChoice) => {
+    countTouched.current = true;
+    setCountState(c);
+  };
+  const chooseRoute = (route: string) => {
+    setChoice(route);
+    const current = goal ? (isBuiltin ? goal.route.id : CUSTOM) : null;
+    if (!countTouched.current) setCountState(route === current ? initialCount : 'today');
+  };
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [problem, setProblem] = useState<string | null>(null);
   const [status, setStatus] = useState('');
@@ -168,11 +180,11 @@ function GoalForm({
         )}
         <div className="grid gap-3 md:grid-cols-2">
           {routes.map((r) => (
-            <RouteCard key={r.id} value={r.id} checked={choice === r.id} onChoose={setChoice} title={r.name}>
-              {km(r.lengthM, locale)}, {r.points.filter((p, i) => p.milestone || i === r.points.length - 1).length} milestones, from {r.points[0]?.name} to {r.points[r.points.length - 1]?.name}
+            <RouteCard key={r.id} value={r.id} checked={choice === r.id} onChoose={chooseRoute} title={r.name}>
+              {km(r.lengthM, locale)}, {r.points.filter((p, i) => p.milestone || i === r.points.length - 1).length} milestones, {routeEnds(r.points)}
             </RouteCard>
           ))}
-          <RouteCard value={CUSTOM} checked={choice === CUSTOM} onChoose={setChoice} title="My own route">
+          <RouteCard value={CUSTOM} checked={choice === CUSTOM} onChoose={chooseRoute} title="My own route">
             Name the places along a route of your own.
           </RouteCard>
         </div>
@@ -186,10 +198,10 @@ function GoalForm({
       )}
 
       <fieldset className="space-y-2">
-        <legend className="text-lg font-semibold">Count rides from</legend>
-        {programStart && <CountOption value="program" current={count} onChoose={setCount} label={`The start of my program (${fullDate(programStart, locale)})`} />}
-        <CountOption value="today" current={count} onChoose={setCount} label={`Today (${fullDate(today, locale)})`} />
-        {goal && initialCount === 'keep' && <CountOption value="keep" current={count} onChoose={setCount} label={`${fullDate(goal.countFrom, locale)}, as now`} />}
+        <legend className="text-lg font-semibold">Count sessions from</legend>
+        {programStart && <CountOption value="program" current={count} onChoose={setCount} label={`The start of my program (${formatDate(programStart, locale, 'date')})`} />}
+        <CountOption value="today" current={count} onChoose={setCount} label={`Today (${formatDate(today, locale, 'date')})`} />
+        {goal && initialCount === 'keep' && <CountOption value="keep" current={count} onChoose={setCount} label={`${formatDate(goal.countFrom, locale, 'date')}, as now`} />}
       </fieldset>
 
       <div className="flex flex-wrap items-center gap-4">

@@ -1,7 +1,8 @@
 import { useApi } from '../api';
-import { distance, minutes, withUnit } from '../rides/format';
+import { distance, minutes, watts } from '../../lib/format/numbers';
 import { Loaded } from '../ui/Loading';
-import { instantDay, instantDayTime, localDate } from './dates';
+import { formatDateTime, formatInstantDate } from '../../lib/time/format';
+import { localDate } from '../../lib/time/local-date';
 import type { WeekData } from './types';
 import { WeekDots } from './WeekDots';
 import { nextDueWords, shortNote, streakWords, weekHeadline, type DueTone } from './week-words';
@@ -13,7 +14,7 @@ const DUE_TONE: Record<DueTone, string> = {
   none: 'border-l-line-strong bg-surface',
 };
 
-/** The rider's home: this week against the prescription, the streak, the next ride and the latest one. */
+/** The rider's home: this week against the prescription, the streak, the next session and the latest one. */
 export default function MyWeek({ clientId, locale }: { clientId: string; locale: string }) {
   const [week, reload] = useApi<WeekData>(`/api/clients/${clientId}/week`);
   return (
@@ -41,11 +42,11 @@ function WeekView({ week, locale }: { week: WeekData; locale: string }) {
           <WeekDots counted={week.counted} prescribed={week.prescribed} />
           {short && <p className="text-ink-soft">{short}</p>}
           {week.sessions.length > 0 && (
-            <ul className="divide-y divide-line border-t border-line" aria-label="This week’s rides">
+            <ul className="divide-y divide-line border-t border-line" aria-label="This week’s sessions">
               {week.sessions.map((s) => (
                 <li key={s.id} className="flex flex-wrap items-baseline justify-between gap-x-4 py-2">
                   <a href={`/sessions/${s.id}`} className="inline-flex min-h-12 items-center font-semibold">
-                    {s.startedAt ? instantDay(s.startedAt, locale, week.timeZone) : 'Ride without a start time'}
+                    {s.startedAt ? formatInstantDate(s.startedAt, locale, week.timeZone, 'weekdayDayMonth') : 'Session without a start time'}
                   </a>
                   <span>
                     {minutes(s.activeS, locale)} active{s.counted ? '' : ', too short to count'}
@@ -59,7 +60,7 @@ function WeekView({ week, locale }: { week: WeekData; locale: string }) {
         <div className="grid gap-4">
           <section aria-labelledby="next-h" className={`card border-l-8 ${DUE_TONE[due.tone]}`} data-testid="next-due">
             <h2 id="next-h" className="text-base font-semibold tracking-wide text-ink-soft uppercase">
-              When to ride
+              Coming up
             </h2>
             <p className="mt-2 text-2xl font-semibold">{due.headline}</p>
             {due.detail && <p className="mt-1 text-lg">{due.detail}</p>}
@@ -84,26 +85,26 @@ function WeekView({ week, locale }: { week: WeekData; locale: string }) {
 
       <section aria-labelledby="latest-h" className="card space-y-3">
         <h2 id="latest-h" className="text-xl">
-          Your latest ride
+          Your latest session
         </h2>
         {week.latest ? (
           <>
-            {week.latest.startedAt && <p className="text-lg">{instantDay(week.latest.startedAt, locale, week.timeZone)}</p>}
+            {week.latest.startedAt && <p className="text-lg">{formatInstantDate(week.latest.startedAt, locale, week.timeZone, 'weekdayDayMonth')}</p>}
             <dl className="grid grid-cols-1 gap-3 min-[400px]:grid-cols-3">
               <Figure label="Active minutes" value={minutes(week.latest.activeS, locale)} />
-              <Figure label="Mean power" value={withUnit(week.latest.meanPowerW, 1, 'W', locale)} />
+              <Figure label="Mean power" value={watts(week.latest.meanPowerW, locale)} />
               <Figure label="Distance" value={distance(week.latest.distanceM, locale)} />
             </dl>
             <p>
               <a href={`/sessions/${week.latest.id}`} className="inline-flex min-h-12 items-center text-lg font-semibold">
-                See this ride in full
+                See this session in full
               </a>
             </p>
           </>
         ) : (
-          <p>No rides are in Kinloop yet. Once the ride files are uploaded, the latest one shows here.</p>
+          <p>No sessions are in Kinloop yet. Once the ride files are uploaded, the latest one shows here.</p>
         )}
-        {week.lastUploadAt && <p className="text-sm text-ink-soft">Ride files last uploaded {instantDayTime(week.lastUploadAt, locale, week.timeZone)}.</p>}
+        {week.lastUploadAt && <p className="text-sm text-ink-soft">Ride files last uploaded {formatDateTime(week.lastUploadAt, locale, week.timeZone, 'weekdayDayMonth')}.</p>}
       </section>
 
       <nav aria-label="Things to do" className="grid gap-3 sm:grid-cols-3">

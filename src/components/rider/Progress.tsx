@@ -1,9 +1,10 @@
 import type { ReactNode } from 'react';
 import { useApi } from '../api';
-import { duration, number } from '../rides/format';
+import { duration, number, watts } from '../../lib/format/numbers';
+import { capitalise } from '../../lib/format/words';
 import { Loaded } from '../ui/Loading';
 import { PALETTE } from '../palette';
-import { fullDate, instantDay } from './dates';
+import { formatInstantDate, weekOf } from '../../lib/time/format';
 import { km } from './goal-words';
 import { GoalSummary } from './GoalSummary';
 import { MEASURES } from './progress-words';
@@ -38,8 +39,8 @@ function ProgressView({ data, timeZone, locale }: { data: ProgressData; timeZone
     <div className="space-y-8">
       <p className="text-xl" data-testid="totals">
         {totals.sessions
-          ? `Since your program started: ${totals.sessions} ${totals.sessions === 1 ? 'ride' : 'rides'}, ${number(totals.activeMinutes, 0, locale)} active minutes and ${km(totals.distanceM, locale)}.`
-          : 'Your rides will show here once their files are uploaded.'}
+          ? `Since your program started: ${totals.sessions} ${totals.sessions === 1 ? 'session' : 'sessions'}, ${number(totals.activeMinutes, 0, locale)} active minutes and ${km(totals.distanceM, locale)}.`
+          : 'Your sessions will show here once their ride files are uploaded.'}
       </p>
 
       <section aria-labelledby="bests-h" className="space-y-3">
@@ -47,16 +48,16 @@ function ProgressView({ data, timeZone, locale }: { data: ProgressData; timeZone
           Personal bests
         </h2>
         <ul className="grid gap-4 md:grid-cols-3">
-          <Best title="Longest active ride" value={longestActive ? duration(longestActive.activeS) : null}>
-            {longestActive && <RideLink id={longestActive.sessionId} day={instantDay(longestActive.startedAt, locale, timeZone)} />}
+          <Best title="Longest active session" value={longestActive ? duration(longestActive.activeS) : null}>
+            {longestActive && <RideLink id={longestActive.sessionId} day={formatInstantDate(longestActive.startedAt, locale, timeZone, 'weekdayDayMonth')} />}
           </Best>
-          <Best title="Highest 5-second power" value={highestPower5s ? `${number(highestPower5s.peakPower5sW, 1, locale)} W` : null}>
-            {highestPower5s && <RideLink id={highestPower5s.sessionId} day={instantDay(highestPower5s.startedAt, locale, timeZone)} />}
+          <Best title="Highest 5-second power" value={highestPower5s ? watts(highestPower5s.peakPower5sW, locale) : null}>
+            {highestPower5s && <RideLink id={highestPower5s.sessionId} day={formatInstantDate(highestPower5s.startedAt, locale, timeZone, 'weekdayDayMonth')} />}
           </Best>
           <Best title="Most distance in a week" value={mostDistanceWeek ? km(mostDistanceWeek.distanceM, locale) : null}>
             {mostDistanceWeek && (
               <p>
-                Week of {fullDate(mostDistanceWeek.monday, locale)}, {mostDistanceWeek.sessions} {mostDistanceWeek.sessions === 1 ? 'ride' : 'rides'}
+                {capitalise(weekOf(mostDistanceWeek.monday, locale, { year: true }))}, {mostDistanceWeek.sessions} {mostDistanceWeek.sessions === 1 ? 'session' : 'sessions'}
               </p>
             )}
           </Best>
@@ -87,7 +88,7 @@ function Best({ title, value, children }: { title: string; value: string | null;
           {children}
         </>
       ) : (
-        <p>Not yet: this fills in once rides with this figure are uploaded.</p>
+        <p>Not yet: this fills in once sessions with this figure are uploaded.</p>
       )}
     </li>
   );

@@ -3,7 +3,7 @@ import { useMemo } from 'react';
 import { Bar, Line } from 'react-chartjs-2';
 import { PALETTE } from '../palette';
 import './chart-setup';
-import { fullDate, shortDate } from './dates';
+import { formatDate } from '../../lib/time/format';
 import { weeklySentence, type WeekMeasure } from './progress-words';
 import type { ProgressWeek } from './types';
 
@@ -31,9 +31,10 @@ export function WeekChart({
   weeks: ProgressWeek[];
   locale: string;
 }) {
-  const labels = useMemo(() => weeks.map((w) => shortDate(w.monday, locale)), [weeks, locale]);
+  const labels = useMemo(() => weeks.map((w) => formatDate(w.monday, locale, 'dayMonth')), [weeks, locale]);
   const values = useMemo(() => weeks.map((w) => (w.sessions > 0 ? measure.value(w) : kind === 'bar' ? 0 : null)), [weeks, measure, kind]);
   const summary = weeklySentence(weeks, measure, locale);
+  const hasData = weeks.some((w) => w.sessions > 0 && measure.value(w) !== null);
   const options = useMemo(
     () =>
       ({
@@ -44,8 +45,8 @@ export function WeekChart({
           legend: { display: false },
           tooltip: {
             callbacks: {
-              title: (items: { dataIndex: number }[]) => (items.length ? `Week of ${fullDate(weeks[items[0].dataIndex].monday, locale)}` : ''),
-              label: (item: { parsed: { y: number | null } }) => (item.parsed.y === null ? 'No rides' : measure.format(item.parsed.y, locale)),
+              title: (items: { dataIndex: number }[]) => (items.length ? `Week of ${formatDate(weeks[items[0].dataIndex].monday, locale, 'date')}` : ''),
+              label: (item: { parsed: { y: number | null } }) => (item.parsed.y === null ? 'No sessions' : measure.format(item.parsed.y, locale)),
             },
           },
         },
@@ -79,7 +80,9 @@ export function WeekChart({
         {title}
       </h3>
       <p className="text-ink-soft">{summary}</p>
-      <div className="relative h-64">{chart}</div>
+      {/* Nothing to draw yet: the sentence says so, without empty 0–1 axes beside it. */}
+      {hasData && <div className="relative h-64">{chart}</div>}
+      {hasData && (
       <details>
         <summary className="inline-flex min-h-12 cursor-pointer items-center font-medium text-lagoon-dark">Show {title.toLowerCase()} as a table</summary>
         <div className="mt-2 max-h-80 overflow-auto rounded-lg border border-line" role="region" aria-label={`${title}, week by week`} tabIndex={0}>
@@ -91,7 +94,7 @@ export function WeekChart({
                   Week of
                 </th>
                 <th scope="col" className="border-b border-line px-3 py-2 font-semibold">
-                  Rides
+                  Sessions
                 </th>
                 <th scope="col" className="border-b border-line px-3 py-2 font-semibold">
                   {title}
@@ -104,7 +107,7 @@ export function WeekChart({
                 return (
                   <tr key={w.isoWeek} className="border-b border-line last:border-b-0">
                     <th scope="row" className="px-3 py-2 font-normal whitespace-nowrap">
-                      {fullDate(w.monday, locale)}
+                      {formatDate(w.monday, locale, 'date')}
                     </th>
                     <td className="px-3 py-2">{w.sessions}</td>
                     <td className="px-3 py-2 whitespace-nowrap">{w.sessions > 0 && v !== null ? measure.format(v, locale) : '—'}</td>
@@ -115,6 +118,7 @@ export function WeekChart({
           </table>
         </div>
       </details>
+      )}
     </section>
   );
 }

@@ -1,10 +1,23 @@
 // How far along a distance goal the rider is, in words, for the goal and progress pages.
-import { number } from '../rides/format';
+import { number } from '../../lib/format/numbers';
 import type { GoalProgress } from './types';
 
 /** Kilometres with one decimal: "12.3 km". */
 export function km(metres: number, locale: string): string {
   return `${number(metres / 1000, 1, locale)} km`;
+}
+
+/** Where a route goes: "from Passau to Vienna", or "from Konstanz harbour and back" when it ends within 200 m of its start. */
+export function routeEnds(points: { name: string; lat: number; lon: number }[]): string {
+  const first = points[0];
+  const last = points[points.length - 1];
+  if (!first || !last || points.length < 2) return first ? `at ${first.name}` : '';
+  // An equirectangular distance is plenty at this scale (common practice); Earth radius 6371 km (IUGG mean radius).
+  const rad = Math.PI / 180;
+  const dx = (last.lon - first.lon) * rad * Math.cos(((first.lat + last.lat) / 2) * rad);
+  const dy = (last.lat - first.lat) * rad;
+  const loop = Math.hypot(dx, dy) * 6_371_000 < 200;
+  return loop ? `from ${first.name} and back` : `from ${first.name} to ${last.name}`;
 }
 
 /** Whole percent, never showing 100 % before the finish. */

@@ -29,7 +29,7 @@ export function SessionFigures({ summary: s, startedLabel, timeZone, startedAtSo
       </div>
       <Figure term="Duration" value={duration(s.durationS)} />
       <Figure term="Active" value={minutes(s.activeS)} />
-      <Figure term="Passive (warm-up)" value={minutes(s.passiveS)} />
+      <Figure term="Warm-up" value={minutes(s.passiveS)} />
       <Figure term="Cool-down" value={minutes(s.cooldownS)} />
       <Figure term="Mean power" value={withUnit(s.meanPowerW, 1, 'W')} note="while active" />
       <Figure term="Peak power over 5 s" value={withUnit(s.peakPower5sW, 1, 'W')} />

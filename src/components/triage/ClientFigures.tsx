@@ -1,6 +1,7 @@
 // The figure cells shared by triage and the caseload: last session, adherence,
 // streak and power trend, each readable without colour or icons.
-import { longDate, relativeDay } from './relative-time';
+import { number, wattsPerWeek, DIGITS } from '../../lib/format/numbers';
+import { formatInstantDate, relativeDay } from '../../lib/time/format';
 
 const Missing = ({ why }: { why: string }) => (
   <>
@@ -9,30 +10,30 @@ const Missing = ({ why }: { why: string }) => (
   </>
 );
 
-export function LastSession({ at, now }: { at: string | null; now: Date }) {
+export function LastSession({ at, now, locale, timeZone }: { at: string | null; now: Date; locale: string; timeZone: string }) {
   if (!at) return <span className="text-ink-soft">No sessions yet</span>;
-  const date = longDate(at);
+  const date = formatInstantDate(at, locale, timeZone, 'dayLong');
   return (
     <time dateTime={at} title={date}>
-      {relativeDay(at, now)}
+      {relativeDay(at, now, timeZone)}
       <span className="sr-only">, {date}</span>
     </time>
   );
 }
 
 export function Adherence({ pct }: { pct: number | null }) {
-  return pct === null ? <Missing why="Not known yet" /> : <>{Math.round(pct)} %</>;
+  return pct === null ? <Missing why="Not known yet" /> : <>{number(pct, DIGITS.percent)} %</>;
 }
 
 export function Streak({ weeks }: { weeks: number }) {
   return <>{weeks === 1 ? '1 week' : `${weeks} weeks`}</>;
 }
 
-/** Trends within ±0.05 W a week round to 0.0 and read as steady. */
-export function PowerTrend({ wPerWeek }: { wPerWeek: number | null }) {
+/** The trend as the client's page says it ("−0.2 W a week"); one that rounds to 0.0 reads as steady. */
+export function PowerTrend({ wPerWeek, locale }: { wPerWeek: number | null; locale: string }) {
   if (wPerWeek === null) return <Missing why="Not enough sessions for a trend" />;
-  const direction = Math.abs(wPerWeek) < 0.05 ? 'steady' : wPerWeek > 0 ? 'rising' : 'falling';
-  const value = direction === 'steady' ? '0.0' : `${wPerWeek > 0 ? '+' : '−'}${Math.abs(wPerWeek).toFixed(1)}`;
+  const text = wattsPerWeek(wPerWeek, locale);
+  const direction = text.startsWith('+') ? 'rising' : text.startsWith('\u2212') ? 'falling' : 'steady';
   return (
     <span className="inline-flex items-center gap-1 whitespace-nowrap">
       <svg role="img" aria-label={direction === 'steady' ? 'Steady' : direction === 'rising' ? 'Rising' : 'Falling'} width="18" height="18" viewBox="0 0 18 18" className="shrink-0">
@@ -45,7 +46,7 @@ export function PowerTrend({ wPerWeek }: { wPerWeek: number | null }) {
           strokeLinejoin="round"
         />
       </svg>
-      {value} W/week
+      {text}
     </span>
   );
 }

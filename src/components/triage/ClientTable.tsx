@@ -7,20 +7,15 @@ import {
 } from '@tanstack/react-table';
 import { useId, useMemo, type ReactNode } from 'react';
 import { Adherence, LastSession, PowerTrend, Streak } from './ClientFigures';
-import { severityRank } from '../../lib/flags/words';
+import { compareClientsByUrgency } from '../../lib/flags/urgency';
 import type { ClientRow } from './types';
 
 const col = createColumnHelper<ClientRow>();
 
-/** Most severe first, then the longest waiting; clients without flags last. */
-function compareFlags(a: ClientRow, b: ClientRow): number {
-  const [fa, fb] = [a.flags[0], b.flags[0]];
-  return severityRank(fa?.severity) - severityRank(fb?.severity) || (fa?.raisedAt ?? '').localeCompare(fb?.raisedAt ?? '');
-}
-
 interface CellMeta {
   renderFlags: (row: ClientRow) => ReactNode;
   now: Date;
+  locale: string;
 }
 const meta = (c: { table: { options: { meta?: unknown } } }) => c.table.options.meta as CellMeta;
 
@@ -38,11 +33,11 @@ const COLUMNS = [
       </a>
     ),
   }),
-  col.accessor('flags', { id: 'flags', header: 'Open flags', sortingFn: (a, b) => compareFlags(a.original, b.original), sortDescFirst: false, cell: (c) => meta(c).renderFlags(c.row.original) }),
-  col.accessor((r) => r.lastSessionAt ?? undefined, { id: 'lastSession', header: 'Last session', sortUndefined: -1, sortDescFirst: false, cell: (c) => <LastSession at={c.row.original.lastSessionAt} now={meta(c).now} /> }),
+  col.accessor('flags', { id: 'flags', header: 'Open flags', sortingFn: (a, b) => compareClientsByUrgency(a.original, b.original), sortDescFirst: false, cell: (c) => meta(c).renderFlags(c.row.original) }),
+  col.accessor((r) => r.lastSessionAt ?? undefined, { id: 'lastSession', header: 'Last session', sortUndefined: -1, sortDescFirst: false, cell: (c) => <LastSession at={c.row.original.lastSessionAt} now={meta(c).now} locale={meta(c).locale} timeZone={c.row.original.timeZone} /> }),
   col.accessor((r) => r.adherence4wPct ?? undefined, { id: 'adherence', header: '4-week adherence', sortUndefined: 'last', sortDescFirst: false, cell: (c) => <Adherence pct={c.row.original.adherence4wPct} /> }),
   col.accessor('streakWeeks', { id: 'streak', header: 'Streak', sortDescFirst: false, cell: (c) => <Streak weeks={c.getValue()} /> }),
-  col.accessor((r) => r.powerTrendWPerWeek ?? undefined, { id: 'powerTrend', header: 'Power trend', sortUndefined: 'last', sortDescFirst: false, cell: (c) => <PowerTrend wPerWeek={c.row.original.powerTrendWPerWeek} /> }),
+  col.accessor((r) => r.powerTrendWPerWeek ?? undefined, { id: 'powerTrend', header: 'Power trend', sortUndefined: 'last', sortDescFirst: false, cell: (c) => <PowerTrend wPerWeek={c.row.original.powerTrendWPerWeek} locale={meta(c).locale} /> }),
 ];
 // The link's own 48 px height stands in for the cell padding, so the name lines up with the other cells' text.
 const CELL_WIDTH: Record<string, string> = { client: 'lg:py-0 lg:w-[15%]', flags: 'lg:w-[44%]' };
@@ -71,8 +66,10 @@ export function ClientTable({
   renderFlags,
   sorting,
   onSortingChange,
+  locale,
 }: {
   caption: string;
+  locale: string;
   rows: ClientRow[];
   renderFlags: (row: ClientRow) => ReactNode;
   sorting: SortingState;
@@ -83,7 +80,7 @@ export function ClientTable({
   const table = useReactTable({
     data: rows,
     columns: COLUMNS,
-    meta: { renderFlags, now } satisfies CellMeta,
+    meta: { renderFlags, now, locale } satisfies CellMeta,
     state: { sorting },
     onSortingChange: (updater) => onSortingChange(typeof updater === 'function' ? updater(sorting) : updater),
     getCoreRowModel: getCoreRowModel(),

@@ -1,66 +1,76 @@
 import { useEffect, useId, useRef, useState, type FormEvent } from 'react';
+import { flagReason } from '../../lib/flags/reason';
+import { FLAG_KIND_WORDS } from '../../lib/flags/words';
+import { formatDate } from '../../lib/time/format';
+import { addDays, localDate } from '../../lib/time/local-date';
 import { api, ApiError } from '../api';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { TextAreaField, TextField } from '../ui/Field';
-import { FLAG_KIND_WORDS } from '../../lib/flags/words';
-import { localDateAfter, longDate } from './relative-time';
 import { SeverityChip } from './SeverityChip';
 import type { FlagAction, FlagItem } from './types';
 
 export interface ActionTarget {
   flag: FlagItem;
   clientName: string;
-  action: FlagAction;
+  /** The client's zone: snooze dates are their calendar days. */
+  timeZone: string;
 }
 
-const WORDING: Record<FlagAction, { title: string; explain: string; confirm: string }> = {
-  acknowledge: {
-    title: 'Acknowledge this flag',
-    explain: 'Acknowledging records that you have seen the flag and takes it off triage. It stays on the client’s record, and comes back to triage if a new episode starts or it becomes more severe.',
+const CHOICES: { action: FlagAction; label: string; explain: string; confirm: string }[] = [
+  {
+    action: 'acknowledge',
+    label: 'Acknowledge',
+    explain: 'Records that you have seen the flag and takes it off triage. It stays on the client’s record, and comes back to triage if a new episode starts or it becomes more severe.',
     confirm: 'Acknowledge flag',
   },
-  snooze: {
-    title: 'Snooze this flag',
-    explain: 'Snoozing hides the flag from triage up to and including the date you choose. It stays open and comes back the day after.',
+  {
+    action: 'snooze',
+    label: 'Snooze',
+    explain: 'Hides the flag from triage up to and including the date you choose. It stays open and comes back the day after.',
     confirm: 'Snooze flag',
   },
-  resolve: {
-    title: 'Resolve this flag',
-    explain: 'Resolving closes the flag. If the same problem starts again later, Kinloop raises a new flag.',
+  {
+    action: 'resolve',
+    label: 'Resolve',
+    explain: 'Closes the flag. If the same problem starts again later, Kinloop raises a new flag.',
     confirm: 'Resolve flag',
   },
-};
+];
 
 /** The sentence announced once an action has been saved. */
-export function doneMessage({ flag, clientName, action }: ActionTarget, until?: string): string {
+export function doneMessage({ flag, clientName }: ActionTarget, action: FlagAction, locale: string, until?: string): string {
   const what = `${FLAG_KIND_WORDS[flag.kind]} for ${clientName}`;
-  if (action === 'snooze') return `Snoozed: ${what}, until ${longDate(`${until}T12:00:00`)}. It has left the open list.`;
+  if (action === 'snooze') return `Snoozed: ${what}, until ${formatDate(until!, locale, 'dayLong')}. It has left the open list.`;
   return `${action === 'acknowledge' ? 'Acknowledged' : 'Resolved'}: ${what}. It has left the open list.`;
 }
 
 /**
- * A native modal dialog for acknowledging, snoozing or resolving one flag with
+ * A native modal dialog for one flag: acknowledge, snooze or resolve it, with
  * an optional note. The browser keeps focus inside and closes it on Escape;
  * the caller decides where focus goes afterwards.
  */
 export function FlagActionDialog({
   target,
+  locale,
   onDone,
   onCancel,
 }: {
   target: ActionTarget | null;
+  locale: string;
   onDone: (message: string) => void;
   onCancel: () => void;
 }) {
   const dialog = useRef<HTMLDialogElement>(null);
   const form = useRef<HTMLFormElement>(null);
   const titleId = useId();
+  const [action, setAction] = useState<FlagAction>('acknowledge');
   const [note, setNote] = useState('');
   const [until, setUntil] = useState('');
   const [error, setError] = useState<ApiError | null>(null);
   const [busy, setBusy] = useState(false);
   const finished = useRef(false);
+  const today = target ? localDate(new Date(), target.timeZone) : '';
 
   useEffect(() => {
     const el = dialog.current;
@@ -69,12 +79,13 @@ export function FlagActionDialog({
       if (el.open) el.close();
       return;
     }
+    setAction('acknowledge');
     setNote('');
-    setUntil(localDateAfter(new Date(), 7));
+    setUntil(addDays(localDate(new Date(), target.timeZone), 7));
     setError(null);
     finished.current = false;
     if (!el.open) el.showModal();
-    form.current?.querySelector<HTMLElement>('input, textarea')?.focus();
+    form.current?.querySelector<HTMLElement>('input:checked')?.focus();
   }, [target]);
 
   function onClose() {
@@ -87,11 +98,11 @@ export function FlagActionDialog({
     setBusy(true);
     setError(null);
     try {
-      const body = { action: target.action, ...(note.trim() ? { note: note.trim() } : {}), ...(target.action === 'snooze' ? { until } : {}) };
+      const body = { action, ...(note.trim() ? { note: note.trim() } : {}), ...(action === 'snooze' ? { until } : {}) };
       await api('POST', `/api/flags/${target.flag.id}`, body);
       finished.current = true;
       dialog.current?.close();
-      onDone(doneMessage(target, until));
+      onDone(doneMessage(target, action, locale, until));
     } catch (err) {
       setError(err as ApiError);
     } finally {
@@ -99,7 +110,7 @@ export function FlagActionDialog({
     }
   }
 
-  const words = target ? WORDING[target.action] : null;
+  const chosen = CHOICES.find((c) => c.action === action)!;
   return (
     <dialog
       ref={dialog}
@@ -107,36 +118,34 @@ export function FlagActionDialog({
       onClose={onClose}
       className="m-auto w-[min(36rem,calc(100vw-1.5rem))] max-h-[calc(100dvh-1.5rem)] overflow-y-auto rounded-xl border border-line bg-surface p-0 text-ink shadow-xl backdrop:bg-ink/60"
     >
-      {target && words && (
+      {target && (
         <form ref={form} onSubmit={submit} className="space-y-4 p-5" noValidate>
           <h2 id={titleId} className="text-xl">
-            {words.title}
+            {FLAG_KIND_WORDS[target.flag.kind]} for {target.clientName}
           </h2>
           <div className="space-y-1 rounded-lg bg-paper p-3">
-            <p className="flex flex-wrap items-center gap-2">
-              <SeverityChip severity={target.flag.severity} />
-              <span className="font-semibold">
-                {FLAG_KIND_WORDS[target.flag.kind]} · {target.clientName}
-              </span>
-            </p>
-            <p>{target.flag.reason}</p>
+            <SeverityChip severity={target.flag.severity} />
+            <p>{flagReason(target.flag, locale)}</p>
           </div>
-          <p className="text-ink-soft">{words.explain}</p>
+          <fieldset className="space-y-2">
+            <legend className="font-semibold">What to do with this flag</legend>
+            <div className="flex flex-wrap gap-2">
+              {CHOICES.map((c) => (
+                <label key={c.action} className="flex min-h-12 cursor-pointer items-center gap-2 rounded-lg border-2 border-line px-3 has-[:checked]:border-lagoon has-[:checked]:bg-lagoon-tint">
+                  <input type="radio" name="action" value={c.action} checked={action === c.action} onChange={() => setAction(c.action)} className="h-5 w-5 accent-lagoon" />
+                  {c.label}
+                </label>
+              ))}
+            </div>
+            <p className="text-ink-soft">{chosen.explain}</p>
+          </fieldset>
           {error && !error.field('until') && (
             <Alert tone="danger" live>
               {error.message}
             </Alert>
           )}
-          {target.action === 'snooze' && (
-            <TextField
-              label="Snooze until"
-              type="date"
-              name="until"
-              min={localDateAfter(new Date(), 1)}
-              value={until}
-              onChange={(e) => setUntil(e.target.value)}
-              error={error?.field('until')}
-            />
+          {action === 'snooze' && (
+            <TextField label="Snooze until" type="date" name="until" min={addDays(today, 1)} value={until} onChange={(e) => setUntil(e.target.value)} error={error?.field('until')} />
           )}
           <TextAreaField
             label="Note"
@@ -152,7 +161,7 @@ export function FlagActionDialog({
               Cancel
             </Button>
             <Button type="submit" busy={busy}>
-              {words.confirm}
+              {chosen.confirm}
             </Button>
           </div>
         </form>

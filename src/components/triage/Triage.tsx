@@ -10,12 +10,12 @@ import { FlagFilters } from './FlagFilters';
 import { firstPage, usePagedRows } from './paged';
 import { ShowMore } from './ShowMore';
 import { TriageFlags } from './TriageFlags';
-import type { ClientRow, FlagAction, FlagItem } from './types';
+import type { ClientRow, FlagItem } from './types';
 
 const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
 
 /** The therapist's home: every client with open flags, and what to do about each flag. */
-export default function Triage() {
+export default function Triage({ locale }: { locale: string }) {
   const [filter, setFilter] = useState<RowFilter>(NO_FILTER);
   const [sorting, setSorting] = useState<SortingState>([{ id: 'flags', desc: false }]);
   const list = usePagedRows('/api/triage', filter, sorting);
@@ -25,14 +25,14 @@ export default function Triage() {
   const heading = useRef<HTMLHeadingElement>(null);
   const now = useMemo(() => new Date(), [list.rows]);
 
-  const onAction = useCallback(
-    (row: ClientRow) => (flag: FlagItem, action: FlagAction) => {
+  const onAct = useCallback(
+    (row: ClientRow) => (flag: FlagItem) => {
       opener.current = document.activeElement as HTMLElement | null;
-      setTarget({ flag, clientName: row.clientName, action });
+      setTarget({ flag, clientName: row.clientName, timeZone: row.timeZone });
     },
     [],
   );
-  const renderFlags = useCallback((row: ClientRow) => <TriageFlags row={row} now={now} onAction={onAction(row)} />, [now, onAction]);
+  const renderFlags = useCallback((row: ClientRow) => <TriageFlags row={row} now={now} locale={locale} onAct={onAct(row)} />, [now, locale, onAct]);
 
   function cancelled() {
     setTarget(null);
@@ -81,7 +81,7 @@ export default function Triage() {
                 <FlagFilters counts={page.all} filter={filter} onChange={setFilter} byFlag />
                 {list.rows.length ? (
                   <>
-                    <ClientTable caption="Clients with open flags" rows={list.rows} renderFlags={renderFlags} sorting={sorting} onSortingChange={setSorting} />
+                    <ClientTable caption="Clients with open flags, most urgent first" rows={list.rows} renderFlags={renderFlags} sorting={sorting} onSortingChange={setSorting} locale={locale} />
                     <ShowMore list={list} noun="clients" />
                   </>
                 ) : (
@@ -96,7 +96,7 @@ export default function Triage() {
           </section>
         )}
       </Loaded>
-      <FlagActionDialog target={target} onDone={done} onCancel={cancelled} />
+      <FlagActionDialog target={target} locale={locale} onDone={done} onCancel={cancelled} />
     </div>
   );
 }

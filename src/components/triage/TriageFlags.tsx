@@ -1,17 +1,16 @@
-import { Button } from '../ui/Button';
 import { FLAG_KIND_WORDS } from '../../lib/flags/words';
-import { longDate, openFor } from './relative-time';
+import { flagReason } from '../../lib/flags/reason';
+import { formatInstantDate, openFor } from '../../lib/time/format';
+import { Button } from '../ui/Button';
 import { SeverityChip } from './SeverityChip';
-import type { ClientRow, FlagAction, FlagItem } from './types';
+import type { ClientRow, FlagItem } from './types';
 
-const ACTIONS: { action: FlagAction; label: string }[] = [
-  { action: 'acknowledge', label: 'Acknowledge' },
-  { action: 'snooze', label: 'Snooze' },
-  { action: 'resolve', label: 'Resolve' },
-];
-
-/** A client's open flags, each with its reason, age and the three actions. */
-export function TriageFlags({ row, now, onAction }: { row: ClientRow; now: Date; onAction: (flag: FlagItem, action: FlagAction) => void }) {
+/**
+ * A client's open flags, each with its reason, age and one button that opens
+ * the choice of acknowledging, snoozing or resolving it. The button's visible
+ * words name the flag and the client, so a voice user can say which one.
+ */
+export function TriageFlags({ row, now, locale, onAct }: { row: ClientRow; now: Date; locale: string; onAct: (flag: FlagItem) => void }) {
   return (
     <ul className="space-y-3 lg:min-w-[22rem]" aria-label={`Open flags for ${row.clientName}`}>
       {row.flags.map((flag) => {
@@ -21,27 +20,19 @@ export function TriageFlags({ row, now, onAction }: { row: ClientRow; now: Date;
             <p className="flex flex-wrap items-center gap-x-2 gap-y-1">
               <SeverityChip severity={flag.severity} />
               <span className="font-semibold">{kind}</span>
-              <time className="text-sm text-ink-soft" dateTime={flag.raisedAt} title={longDate(flag.raisedAt)}>
-                {openFor(flag.raisedAt, now)}
+              <time className="text-sm text-ink-soft" dateTime={flag.raisedAt} title={formatInstantDate(flag.raisedAt, locale, row.timeZone, 'dayLong')}>
+                {openFor(flag.raisedAt, now, row.timeZone)}
               </time>
             </p>
-            <p className="mt-1">{flag.reason}</p>
+            <p className="mt-1">{flagReason(flag, locale)}</p>
             {flag.clearedAt && (
               <p className="mt-1 text-sm text-ink-soft">
-                The condition has not held since {longDate(flag.clearedAt)}; the flag stays open until you act on it.
+                The condition has not held since {formatInstantDate(flag.clearedAt, locale, row.timeZone, 'dayLong')}; the flag stays open until you act on it.
               </p>
             )}
-            <div className="mt-2 flex flex-wrap gap-2">
-              {ACTIONS.map(({ action, label }) => (
-                <Button key={action} variant="secondary" className="px-4" onClick={() => onAction(flag, action)}>
-                  {label}
-                  <span className="sr-only">
-                    {' '}
-                    {kind} flag for {row.clientName}
-                  </span>
-                </Button>
-              ))}
-            </div>
+            <Button variant="secondary" className="mt-2 px-4 text-left" onClick={() => onAct(flag)}>
+              Act on {kind.toLowerCase()} for {row.clientName}
+            </Button>
           </li>
         );
       })}

@@ -7,7 +7,9 @@ export type FlagItem = FlagView;
 export interface ClientRow extends ClientOverview {
   clientId: string;
   clientName: string;
-  /** Open, not snoozed; most severe first, then the oldest. */
+  /** The client's time zone: "today" and "3 days ago" are their calendar days. */
+  timeZone: string;
+  /** Open, not snoozed; most urgent first (src/lib/flags/urgency.ts). */
   flags: FlagItem[];
 }
 

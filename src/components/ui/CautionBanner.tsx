@@ -1,11 +1,4 @@
-import { AD_SAFETY_PANEL, GENERAL_CAUTION } from '../../lib/checks/safety-text';
-
-// The short form for pages where flags sit close by; the full sentence lives in
-// GENERAL_CAUTION and the steps in AD_SAFETY_PANEL, so every screen agrees.
-const COMPACT_LINES = [
-  "Kinloop is not a real-time monitor and does not diagnose; follow your clinic's own protocols and local regulations.",
-  "If symptoms appear during a ride, stop the ride and follow the rider's autonomic dysreflexia plan; call emergency services if symptoms do not settle.",
-];
+import { AD_SAFETY_PANEL, GENERAL_CAUTION, SHORT_CAUTION } from '../../lib/checks/safety-text';
 
 /**
  * The safety caution shown wherever flags, checks or prescriptions appear.
@@ -21,7 +14,7 @@ export default function CautionBanner({ compact = false }: { compact?: boolean }
           <path d="M12 7v6M12 16.5v.5" stroke="currentColor" strokeWidth="2.2" strokeLinecap="round" />
         </svg>
         <div className="min-w-0 space-y-1">
-          {compact ? COMPACT_LINES.map((line) => <p key={line}>{line}</p>) : <p>{GENERAL_CAUTION}</p>}
+          {compact ? SHORT_CAUTION.map((line) => <p key={line}>{line}</p>) : <p>{GENERAL_CAUTION}</p>}
           <details className="group">
             <summary className="inline-flex min-h-12 cursor-pointer list-none items-center gap-2 rounded font-semibold text-lagoon-dark underline underline-offset-2 [&::-webkit-details-marker]:hidden">
               <svg aria-hidden="true" width="14" height="14" viewBox="0 0 14 14" className="shrink-0 transition-transform group-open:rotate-90">

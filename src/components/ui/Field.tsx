@@ -34,7 +34,8 @@ function describedBy(id: string, help: unknown, error: unknown): string | undefi
 }
 
 export function TextField({ label, help, error, optional, ...input }: FieldShell & InputHTMLAttributes<HTMLInputElement>) {
-  const id = useId();
+  const generated = useId();
+  const id = input.id ?? generated;
   return (
     <Shell id={id} label={label} help={help} error={error} optional={optional}>
       <input
@@ -57,7 +58,8 @@ export function SelectField({
   options,
   ...select
 }: FieldShell & SelectHTMLAttributes<HTMLSelectElement> & { options: { value: string; label: string }[] }) {
-  const id = useId();
+  const generated = useId();
+  const id = select.id ?? generated;
   return (
     <Shell id={id} label={label} help={help} error={error} optional={optional}>
       <select
@@ -79,7 +81,8 @@ export function SelectField({
 }
 
 export function TextAreaField({ label, help, error, optional, ...area }: FieldShell & TextareaHTMLAttributes<HTMLTextAreaElement>) {
-  const id = useId();
+  const generated = useId();
+  const id = area.id ?? generated;
   return (
     <Shell id={id} label={label} help={help} error={error} optional={optional}>
       <textarea

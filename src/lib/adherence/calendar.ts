@@ -8,7 +8,8 @@
 //   a partly paused week counts only its unpaused days;
 // - a week with any paused day is paused: neither met nor missed;
 // - a week whose Sunday has no prescription is not counted.
-import { datesOfWeek, isoWeekOf, localDate, type IsoWeek } from '../time/iso-week';
+import { datesOfWeek, isoWeekOf, type IsoWeek } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { pausedOn } from './pause';
 import { prescriptionTimeline, type PrescriptionTimeline } from './prescription';
 import { sessionStatus, type SessionStatus } from './session-status';

@@ -1,6 +1,7 @@
 // computeAdherence: the weekly adherence view of one client. Rules from the
 // Kinloop supervision issue; see ./calendar.ts and ./streak.ts.
-import { isoWeekOf, localDate, weeksEndingAt } from '../time/iso-week';
+import { isoWeekOf, weeksEndingAt } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { createAdherenceCalendar } from './calendar';
 import { DEFAULT_COUNT_THRESHOLD_PCT } from './session-status';
 import { adherencePct, lastJudgedWeeks, streakWeeks } from './streak';

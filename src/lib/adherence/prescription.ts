@@ -1,7 +1,7 @@
 // Which prescription version is in effect on a local date. Rules from the
 // Kinloop supervision issue: a version holds from its effective date until the
 // next one; a version asking for 0 sessions a week prescribes nothing.
-import { parseLocalDate } from '../time/local-date';
+import { assertLocalDate } from '../time/local-date';
 import type { PrescriptionVersion } from './types';
 
 export interface PrescriptionTimeline {
@@ -13,7 +13,7 @@ export interface PrescriptionTimeline {
 }
 
 export function prescriptionTimeline(versions: PrescriptionVersion[]): PrescriptionTimeline {
-  for (const version of versions) parseLocalDate(version.effectiveFrom);
+  for (const version of versions) assertLocalDate(version.effectiveFrom);
   // A stable sort keeps the order given for versions of the same date, and the
   // last of those wins: it is the one written last.
   const sorted = [...versions].sort((a, b) => a.effectiveFrom.localeCompare(b.effectiveFrom));

@@ -14,7 +14,8 @@
 // The stored weeks hold only as long as the sessions, prescriptions, pauses,
 // time zone and count threshold they were made from: the store
 // (src/lib/supervision/adherence-store.ts) knows when they changed.
-import { isoWeekOf, localDate, nextWeek, previousWeek, weeksEndingAt, type IsoWeek } from '../time/iso-week';
+import { isoWeekOf, nextWeek, previousWeek, weeksEndingAt, type IsoWeek } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { createAdherenceCalendar, type AdherenceCalendar } from './calendar';
 import { prescriptionTimeline } from './prescription';
 import { DEFAULT_COUNT_THRESHOLD_PCT } from './session-status';

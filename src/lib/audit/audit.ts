@@ -1,4 +1,4 @@
-import type { Knex } from 'knex';
+import type { Db } from '../data/db';
 
 export interface AuditEntry {
   actorUserId: string | null;
@@ -21,8 +21,8 @@ function storable(value: string): string {
 }
 
 /** Appends to the audit log. Pass the transaction when the change it records has one, so both land or neither. */
-export async function audit(knex: Knex | Knex.Transaction, entry: AuditEntry): Promise<void> {
-  await knex('audit_log').insert({
+export async function audit(db: Db, entry: AuditEntry): Promise<void> {
+  await db('audit_log').insert({
     actor_user_id: entry.actorUserId,
     action: entry.action,
     clinic_id: entry.clinicId ?? null,

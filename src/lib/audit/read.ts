@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { staffClinic } from '../auth/access';
 import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
 import { line, rowId } from '../validation/fields';
 
 export const auditQuerySchema = z.object({
@@ -18,19 +18,10 @@ export const auditQuerySchema = z.object({
  * by a client also finds the lists that showed them.
  */
 export async function readAuditLog(ctx: RequestContext, query: z.infer<typeof auditQuerySchema>) {
-  const clinicId = staffClinic(ctx.viewer, ['admin'], query.clinicId);
-  const q = ctx.knex('audit_log as a')
+  const { clinicId, query: log } = scope(ctx).auditLog(query.clinicId, 'a');
+  const q = log
     .leftJoin('users as u', 'u.id', 'a.actor_user_id')
     .leftJoin('clients as c', (j) => j.on('c.id', 'a.client_id').andOnVal('c.clinic_id', '=', clinicId))
-    .where((w) => {
-      w.where('a.clinic_id', clinicId).orWhere((x) =>
-        x.whereNull('a.clinic_id').whereIn('a.actor_user_id', (s) => {
-          s.select('user_id').from('memberships').where('clinic_id', clinicId)
-            .union((u) => u.select('carer_user_id').from('carer_links').join('clients', 'clients.id', 'carer_links.client_id').where('clients.clinic_id', clinicId))
-            .union((u) => u.select('user_id').from('clients').where('clinic_id', clinicId).whereNotNull('user_id'));
-        }),
-      );
-    })
     .orderBy('a.id', 'desc')
     .limit(query.limit)
     .select('a.*', 'u.name as actor_name', 'u.email as actor_email', 'c.display_name as client_name');

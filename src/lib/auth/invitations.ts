@@ -1,4 +1,4 @@
-import type { Knex } from 'knex';
+import { scope, type ClientGrant, type ClinicGrant, type Db, type ScopeAuditEntry } from '../data';
 import { z } from 'zod';
 import { audit } from '../audit/audit';
 import { config } from '../config';
@@ -6,8 +6,7 @@ import type { AuthSessionRow, ClientRow, InvitationRow, UserRow } from '../db/ta
 import { HttpError, badRequest, conflict, forbidden } from '../http/errors';
 import { enqueueEmail } from '../mail/outbox';
 import { invitationEmail } from '../mail/templates';
-import { accessClient, staffClinic } from './access';
-import { auditAs, type RequestContext } from './context';
+import type { RequestContext } from './context';
 import { hashPassword, passwordSchema, setPassword } from './password';
 import { createSession } from './sessions';
 import { checkPassword, findUserByEmail, normaliseEmail, type RequestMeta } from './sign-in';
@@ -37,7 +36,7 @@ export const acceptInputSchema = z.object({
   password: passwordSchema,
 });
 
-async function activeInvitation(knex: Knex | Knex.Transaction, token: string) {
+async function activeInvitation(knex: Db, token: string) {
   const row = await knex<InvitationRow>('invitations').where({ token_hash: hashToken(token) }).first();
   if (!row || row.accepted_at || row.revoked_at || row.expires_at.getTime() <= Date.now()) return null;
   return row;
@@ -48,31 +47,38 @@ async function activeInvitation(knex: Knex | Knex.Transaction, token: string) {
  * invite a client (to the client's own account) and a client's carers.
  */
 export async function createInvitation(ctx: RequestContext, input: InvitationInput) {
+  const s = scope(ctx);
   let clinicId: string;
-  let client: ClientRow | null = null;
+  let grant: ClientGrant | null = null;
+  let staffGrant: ClinicGrant | null = null;
   if (input.role === 'admin' || input.role === 'therapist') {
-    clinicId = staffClinic(ctx.viewer, ['admin'], input.clinicId);
+    staffGrant = s.clinic(['admin'], input.clinicId);
+    clinicId = staffGrant.id;
   } else {
-    client = await accessClient(ctx, input.clientId!, 'manage', 'client.view', { for: 'invitation' });
-    clinicId = client.clinic_id;
-    if (input.role === 'client' && client.user_id) {
-      throw conflict('already_has_account', `${client.display_name} already has an account.`);
+    grant = await s.client(input.clientId!, 'manage', 'client.view', { for: 'invitation' });
+    clinicId = grant.clinicId;
+    if (input.role === 'client' && grant.row.user_id) {
+      throw conflict('already_has_account', `${grant.row.display_name} already has an account.`);
     }
   }
+  const client: ClientRow | null = grant?.row ?? null;
+  // Accounts are looked up wherever they are: the e-mail may belong to someone the inviter cannot see.
+  const accounts = (grant ?? staffGrant)!.system('whether the invited e-mail has an account');
   const email = normaliseEmail(input.email);
-  const existing = await findUserByEmail(ctx.knex, email);
-  if (existing && client && input.role === 'carer') {
-    const linked = await ctx.knex('carer_links').where({ carer_user_id: existing.id, client_id: client.id, active: true }).first();
-    if (linked) throw conflict('already_linked', `${email} is already a carer of ${client.display_name}.`);
+  const existing = await findUserByEmail(accounts, email);
+  if (existing && grant && input.role === 'carer') {
+    const linked = await grant.db('carer_links').where({ carer_user_id: existing.id, active: true }).first();
+    if (linked) throw conflict('already_linked', `${email} is already a carer of ${grant.row.display_name}.`);
   }
   if (existing && input.role === 'client') {
-    const theirs = await ctx.knex('clients').where({ user_id: existing.id }).first();
+    const theirs = await accounts('clients').where({ user_id: existing.id }).first();
     if (theirs) throw conflict('already_client', `${email} already belongs to another client's account.`);
   }
   const { token, hash } = newToken();
   const expiresAt = new Date(Date.now() + INVITATION_DAYS * 86_400_000);
-  const clinic = await ctx.knex('clinics').where({ id: clinicId }).first('name', 'time_zone');
-  return ctx.knex.transaction(async (trx) => {
+  const clinic = await s.clinics().where({ id: clinicId }).first('name', 'time_zone');
+  const write = async (tx: { db: Db; audit: (entry: ScopeAuditEntry) => Promise<void>; system: (why: string) => Db }) => {
+    const trx = tx.db;
     // A new invitation replaces an unanswered one for the same person and purpose.
     await trx('invitations')
       .where({ email, role: input.role, clinic_id: clinicId, client_id: client?.id ?? null })
@@ -102,10 +108,11 @@ export async function createInvitation(ctx: RequestContext, input: InvitationInp
       expiresAt,
       timeZone: clinic.time_zone,
     });
-    await enqueueEmail(trx, { kind: 'invitation', to: email, userId: existing?.id ?? null, ...mail });
-    await auditAs(ctx, { action: 'invitation.create', clinicId, clientId: client?.id ?? null, recordType: 'invitation', recordId: row.id, detail: { email, role: input.role } }, trx);
+    await enqueueEmail(tx.system('the invitation e-mail'), { kind: 'invitation', to: email, userId: existing?.id ?? null, ...mail });
+    await tx.audit({ action: 'invitation.create', clinicId, clientId: client?.id ?? null, recordType: 'invitation', recordId: row.id, detail: { email, role: input.role } });
     return invitationView(row, client?.display_name ?? null);
-  });
+  };
+  return grant ? grant.transaction(write) : staffGrant!.transaction(write);
 }
 
 export function invitationView(row: InvitationRow, clientName: string | null) {
@@ -125,30 +132,31 @@ export function invitationView(row: InvitationRow, clientName: string | null) {
 
 /** Pending invitations of the clinics where the caller is staff. */
 export async function listInvitations(ctx: RequestContext) {
-  const clinics = ctx.viewer.memberships.map((m) => m.clinicId);
-  if (!clinics.length) throw forbidden();
-  const rows = await ctx.knex<InvitationRow>('invitations as i')
+  if (!ctx.viewer.memberships.length) throw forbidden();
+  const s = scope(ctx);
+  const rows = await s
+    .invitations('i')
     .leftJoin('clients as c', 'c.id', 'i.client_id')
-    .whereIn('i.clinic_id', clinics)
     .whereNull('i.accepted_at')
     .whereNull('i.revoked_at')
-    .where('i.expires_at', '>', ctx.knex.fn.now())
+    .where('i.expires_at', '>', s.db.fn.now())
     .orderBy('i.created_at', 'desc')
     .select('i.*', 'c.display_name as client_name');
   return rows.map((r: InvitationRow & { client_name: string | null }) => invitationView(r, r.client_name));
 }
 
 export async function revokeInvitation(ctx: RequestContext, id: string) {
-  const row = /^[0-9a-f-]{36}$/i.test(id) ? await ctx.knex<InvitationRow>('invitations').where({ id }).first() : undefined;
-  const role = row ? ctx.viewer.memberships.find((m) => m.clinicId === row.clinic_id)?.role : undefined;
-  if (!row || !role) throw new HttpError(404, 'not_found', 'That invitation was not found.');
-  if ((row.role === 'admin' || row.role === 'therapist') && role !== 'admin') throw forbidden();
-  await ctx.knex('invitations').where({ id }).whereNull('accepted_at').update({ revoked_at: ctx.knex.fn.now() });
-  await auditAs(ctx, { action: 'invitation.revoke', clinicId: row.clinic_id, clientId: row.client_id, recordType: 'invitation', recordId: id });
+  const s = scope(ctx);
+  const row: InvitationRow | undefined = /^[0-9a-f-]{36}$/i.test(id) ? await s.invitations().where({ id }).first() : undefined;
+  if (!row) throw new HttpError(404, 'not_found', 'That invitation was not found.');
+  const clinic = s.clinic(['admin', 'therapist'], row.clinic_id);
+  if ((row.role === 'admin' || row.role === 'therapist') && clinic.role !== 'admin') throw forbidden();
+  await clinic.db('invitations').where({ id }).whereNull('accepted_at').update({ revoked_at: clinic.db.fn.now() });
+  await clinic.audit({ clientId: row.client_id, action: 'invitation.revoke', recordType: 'invitation', recordId: id });
 }
 
 /** What the invitation page shows before the invitee sets a password. */
-export async function previewInvitation(knex: Knex, token: string) {
+export async function previewInvitation(knex: Db, token: string) {
   const row = await activeInvitation(knex, token);
   if (!row) return null;
   const [clinic, client, existing] = await Promise.all([
@@ -172,7 +180,7 @@ export async function previewInvitation(knex: Knex, token: string) {
  * and grants the role. Single use.
  */
 export async function acceptInvitation(
-  knex: Knex,
+  knex: Db,
   input: z.infer<typeof acceptInputSchema>,
   meta: RequestMeta,
 ): Promise<{ user: UserRow; session: AuthSessionRow }> {

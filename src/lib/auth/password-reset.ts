@@ -1,4 +1,4 @@
-import type { Knex } from 'knex';
+import type { Db, Query } from '../data/db';
 import { z } from 'zod';
 import { audit } from '../audit/audit';
 import { config } from '../config';
@@ -19,7 +19,7 @@ export const resetRequestSchema = z.object({ email: line(z.string().trim().email
 export const resetCompleteSchema = z.object({ token: z.string().min(20).max(200), password: passwordSchema });
 
 /** Sends a reset link when the e-mail has an active account; answers the same either way. */
-export async function requestPasswordReset(knex: Knex, email: string, meta: RequestMeta): Promise<void> {
+export async function requestPasswordReset(knex: Db, email: string, meta: RequestMeta): Promise<void> {
   const user = await findUserByEmail(knex, email);
   if (!user || user.disabled_at || !user.password_hash) {
     await audit(knex, { actorUserId: null, action: 'auth.reset_requested_unknown', ip: meta.ip, userAgent: meta.userAgent, detail: { email } });
@@ -44,13 +44,13 @@ export async function requestPasswordReset(knex: Knex, email: string, meta: Requ
 const usable = (row: PasswordResetRow | undefined): row is PasswordResetRow =>
   Boolean(row && !row.used_at && !row.revoked_at && row.expires_at.getTime() > Date.now());
 
-export async function resetTokenIsValid(knex: Knex, token: string): Promise<boolean> {
+export async function resetTokenIsValid(knex: Db, token: string): Promise<boolean> {
   return usable(await knex<PasswordResetRow>('password_resets').where({ token_hash: hashToken(token) }).first());
 }
 
 /** Sets the new password, ends every other session of the account and signs the user in. */
 export async function completePasswordReset(
-  knex: Knex,
+  knex: Db,
   input: z.infer<typeof resetCompleteSchema>,
   meta: RequestMeta,
 ): Promise<{ user: UserRow; session: AuthSessionRow }> {

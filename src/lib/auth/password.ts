@@ -1,5 +1,5 @@
 import { hash, verify, type Options } from '@node-rs/argon2';
-import type { Knex } from 'knex';
+import type { Db, Query } from '../data/db';
 import { z } from 'zod';
 import type { UserRow } from '../db/tables';
 
@@ -39,7 +39,7 @@ export function decoyHash(): Promise<string> {
  * password from an invitation): it also withdraws every reset link of the
  * account still outstanding, so an older e-mail can no longer set it.
  */
-export async function setPassword(trx: Knex.Transaction, userId: string, passwordHash: string, changes: Partial<Pick<UserRow, 'name'>> = {}): Promise<UserRow> {
+export async function setPassword(trx: Db, userId: string, passwordHash: string, changes: Partial<Pick<UserRow, 'name'>> = {}): Promise<UserRow> {
   const [user] = await trx<UserRow>('users').where({ id: userId }).update({ ...changes, password_hash: passwordHash, updated_at: trx.fn.now() }).returning('*');
   await trx('password_resets').where({ user_id: userId }).whereNull('used_at').whereNull('revoked_at').update({ revoked_at: trx.fn.now() });
   return user;

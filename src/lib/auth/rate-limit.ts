@@ -1,4 +1,4 @@
-import type { Knex } from 'knex';
+import { lock, type Db, type Query } from '../data/db';
 
 // Sign-in limits, counted in PostgreSQL so that they hold across app
 // instances, and designed so that an attacker elsewhere cannot lock the real
@@ -34,22 +34,22 @@ function freedAt(latestFirst: { attempted_at: Date }[], max: number): number | n
   return latestFirst.length >= max ? latestFirst[max - 1].attempted_at.getTime() + SIGN_IN_WINDOW_MS : null;
 }
 
-export async function reserveSignInAttempt(knex: Knex, key: AttemptKey): Promise<Reservation> {
+export async function reserveSignInAttempt(knex: Db, key: AttemptKey): Promise<Reservation> {
   return knex.transaction(async (trx) => {
     // Always the e-mail's lock before the address's, so two attempts never wait on each other in a cycle.
-    await trx.raw('SELECT pg_advisory_xact_lock(hashtextextended(?, 0))', [`sign-in:email:${key.email}`]);
-    await trx.raw('SELECT pg_advisory_xact_lock(hashtextextended(?, 0))', [`sign-in:ip:${key.ip}`]);
+    await lock(trx, `sign-in:email:${key.email}`);
+    await lock(trx, `sign-in:ip:${key.ip}`);
     // The clock is read once the locks are held, so attempts are stored in the order they were counted.
     const now = new Date();
     const since = new Date(now.getTime() - SIGN_IN_WINDOW_MS);
 
-    const pair = (q: Knex.QueryBuilder) =>
+    const pair = (q: Query) =>
       key.device ? q.where({ email: key.email, device: key.device }) : q.where({ email: key.email, ip: key.ip }).whereNull('device');
-    const lastSuccess = async (scope: (q: Knex.QueryBuilder) => Knex.QueryBuilder) => {
+    const lastSuccess = async (scope: (q: Query) => Query) => {
       const row = await scope(trx('sign_in_attempts')).where({ succeeded: true }).where('attempted_at', '>', since).max<{ at: Date | null }>('attempted_at as at').first();
       return row?.at ?? since;
     };
-    const failuresAfter = (scope: (q: Knex.QueryBuilder) => Knex.QueryBuilder, after: Date, max: number) =>
+    const failuresAfter = (scope: (q: Query) => Query, after: Date, max: number) =>
       scope(trx('sign_in_attempts')).where({ succeeded: false }).where('attempted_at', '>', after).orderBy('attempted_at', 'desc').limit(max).select('attempted_at');
 
     const waits: { until: number; limit: 'pair' | 'address' | 'account' }[] = [];
@@ -57,11 +57,11 @@ export async function reserveSignInAttempt(knex: Knex, key: AttemptKey): Promise
     if (pairFreed) waits.push({ until: pairFreed, limit: 'pair' });
 
     if (!key.device) {
-      const address = (q: Knex.QueryBuilder) => q.where({ ip: key.ip }).whereNull('device');
+      const address = (q: Query) => q.where({ ip: key.ip }).whereNull('device');
       const addressFreed = freedAt(await failuresAfter(address, since, MAX_FAILURES_PER_ADDRESS), MAX_FAILURES_PER_ADDRESS);
       if (addressFreed) waits.push({ until: addressFreed, limit: 'address' });
 
-      const account = (q: Knex.QueryBuilder) => q.where({ email: key.email });
+      const account = (q: Query) => q.where({ email: key.email });
       const accountFailures = await failuresAfter(account, await lastSuccess(account), ACCOUNT_SLOWDOWN_AFTER);
       if (accountFailures.length >= ACCOUNT_SLOWDOWN_AFTER) {
         const last = await trx('sign_in_attempts').where({ email: key.email }).whereNull('device').where('attempted_at', '>', since).max<{ at: Date | null }>('attempted_at as at').first();
@@ -80,7 +80,7 @@ export async function reserveSignInAttempt(knex: Knex, key: AttemptKey): Promise
 }
 
 /** A reserved attempt counts as a failure until the password proved right. */
-export async function markSignInSucceeded(knex: Knex, attemptId: string): Promise<void> {
+export async function markSignInSucceeded(knex: Db, attemptId: string): Promise<void> {
   await knex('sign_in_attempts').where({ id: attemptId }).update({ succeeded: true });
 }
 

@@ -1,4 +1,4 @@
-import type { Knex } from 'knex';
+import type { Db, Query } from '../data/db';
 import { config } from '../config';
 import type { AuthSessionRow, UserRow } from '../db/tables';
 import { loadRoles, type Viewer } from './viewer';
@@ -8,7 +8,7 @@ import { loadRoles, type Viewer } from './viewer';
 const TOUCH_AFTER_MS = 60_000;
 
 export async function createSession(
-  knex: Knex,
+  knex: Db,
   userId: string,
   meta: { ip: string; userAgent: string | null },
 ): Promise<AuthSessionRow> {
@@ -20,7 +20,7 @@ export async function createSession(
 }
 
 /** The viewer for a session id, or null when the session is revoked, expired, idle too long or its user disabled. */
-export async function loadSession(knex: Knex, sessionId: string): Promise<Viewer | null> {
+export async function loadSession(knex: Db, sessionId: string): Promise<Viewer | null> {
   if (!/^[0-9a-f-]{36}$/i.test(sessionId)) return null;
   const row: (AuthSessionRow & Pick<UserRow, 'email' | 'name' | 'disabled_at'>) | undefined = await knex('auth_sessions as s')
     .join('users as u', 'u.id', 's.user_id')
@@ -37,11 +37,11 @@ export async function loadSession(knex: Knex, sessionId: string): Promise<Viewer
   return { userId: row.user_id, email: row.email, name: row.name, sessionId, ...roles };
 }
 
-export async function revokeSession(knex: Knex, sessionId: string): Promise<void> {
+export async function revokeSession(knex: Db, sessionId: string): Promise<void> {
   await knex('auth_sessions').where({ id: sessionId }).whereNull('revoked_at').update({ revoked_at: knex.fn.now() });
 }
 
-export async function revokeUserSessions(knex: Knex, userId: string, exceptSessionId?: string): Promise<void> {
+export async function revokeUserSessions(knex: Db, userId: string, exceptSessionId?: string): Promise<void> {
   const q = knex('auth_sessions').where({ user_id: userId }).whereNull('revoked_at');
   if (exceptSessionId) q.whereNot({ id: exceptSessionId });
   await q.update({ revoked_at: knex.fn.now() });

@@ -1,4 +1,4 @@
-import type { Knex } from 'knex';
+import type { Db, Query } from '../data/db';
 import { z } from 'zod';
 import { audit } from '../audit/audit';
 import type { AuthSessionRow, UserRow } from '../db/tables';
@@ -27,7 +27,7 @@ export function normaliseEmail(email: string): string {
   return email.trim().toLowerCase();
 }
 
-export async function findUserByEmail(knex: Knex | Knex.Transaction, email: string): Promise<UserRow | undefined> {
+export async function findUserByEmail(knex: Db, email: string): Promise<UserRow | undefined> {
   return knex<UserRow>('users').whereRaw('lower(email) = ?', [normaliseEmail(email)]).first();
 }
 
@@ -38,7 +38,7 @@ export async function findUserByEmail(knex: Knex | Knex.Transaction, email: stri
  * or 401 (`wrongMessage`).
  */
 export async function checkPassword(
-  knex: Knex,
+  knex: Db,
   input: { email: string; password: string },
   meta: RequestMeta,
   { via, wrongMessage = BAD_CREDENTIALS }: { via: 'sign-in' | 'invitation'; wrongMessage?: string },
@@ -75,7 +75,7 @@ export async function checkPassword(
 }
 
 export async function signIn(
-  knex: Knex,
+  knex: Db,
   input: { email: string; password: string },
   meta: RequestMeta,
 ): Promise<{ user: UserRow; session: AuthSessionRow }> {

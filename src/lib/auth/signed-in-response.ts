@@ -1,5 +1,5 @@
 import type { AstroCookies } from 'astro';
-import type { Knex } from 'knex';
+import type { Db, Query } from '../data/db';
 import type { AuthSessionRow, UserRow } from '../db/tables';
 import { json } from '../http/respond';
 import { setSignedInCookies, type TrustedDevice } from './cookie';
@@ -7,7 +7,7 @@ import { homePath, loadRoles, meResponse } from './viewer';
 
 /** The answer to a request that has just signed the user in: the cookies, the user and where to go. */
 export async function signedInResponse(
-  knex: Knex,
+  knex: Db,
   cookies: AstroCookies,
   { user, session }: { user: UserRow; session: AuthSessionRow },
   device: TrustedDevice | null | undefined,

@@ -1,4 +1,4 @@
-import type { Knex } from 'knex';
+import type { Db, Query } from '../data/db';
 import type { StaffRole } from '../db/tables';
 
 /** Who is making a request, with every role they hold. */
@@ -15,7 +15,7 @@ export interface Viewer {
 }
 
 export async function loadRoles(
-  knex: Knex,
+  knex: Db,
   userId: string,
 ): Promise<Pick<Viewer, 'memberships' | 'carerOf' | 'clientId'>> {
   const [memberships, links, client] = await Promise.all([

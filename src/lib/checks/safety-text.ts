@@ -1,11 +1,16 @@
-// The safety wording shown beside checks, flags and prescriptions, kept as data
-// so every screen says the same thing. Kinloop's own words; see PRODUCT.md "Safety".
+// The safety wording shown beside checks, flags and prescriptions, and in the
+// e-mails and page footers: the one source, kept as data so every screen and
+// message says the same thing. Kinloop's own words; see PRODUCT.md "Safety".
 
 export interface SafetyPanelText {
   title: string;
   intro: string;
   steps: string[];
   closing: string;
+  /** After a check that raised an urgent flag. */
+  alerted: [string, string];
+  /** After one that did not (warning signs in a client not known to be at risk, say). */
+  notAlerted: string;
 }
 
 export const AD_SAFETY_PANEL: SafetyPanelText = {
@@ -22,13 +27,31 @@ export const AD_SAFETY_PANEL: SafetyPanelText = {
     'Call emergency services if the symptoms or the high blood pressure do not settle.',
   ],
   closing: 'Tell the clinic what happened once the rider is safe, and record the readings in a check.',
+  alerted: [
+    'The clinic has been alerted: this check is now an urgent flag on the clinic’s triage list.',
+    'Kinloop is not a real-time monitor, so do not wait for a call from the clinic: work through the steps above now.',
+  ],
+  notAlerted: 'Kinloop is not a real-time monitor: work through the steps above now, then tell the clinic what happened.',
 };
 
+const NOT_A_MONITOR = 'Kinloop is not a real-time monitor and does not diagnose';
+const FOLLOW_PROTOCOLS = 'follow your clinic’s own protocols and local regulations';
+
+/** The full caution, where there is room for it (the rider's prescription card, the report). */
 export const GENERAL_CAUTION =
-  'Kinloop is not a real-time monitor and does not diagnose. If symptoms appear during a ride, stop the ride and ' +
-  "follow the rider's autonomic dysreflexia plan (sit upright, loosen tight clothing, check bladder and bowel, " +
-  'measure blood pressure every few minutes), and call emergency services if symptoms do not settle. Always follow ' +
-  "your clinic's own protocols and local regulations.";
+  `${NOT_A_MONITOR}. If symptoms appear during a ride, stop the ride and ` +
+  'follow the rider’s autonomic dysreflexia plan (sit upright, loosen tight clothing, check bladder and bowel, ' +
+  'measure blood pressure every few minutes), and call emergency services if symptoms do not settle. Always ' +
+  `${FOLLOW_PROTOCOLS}.`;
+
+/** The same caution in two short lines, for pages where flags sit close by and for e-mails. */
+export const SHORT_CAUTION: readonly string[] = [
+  `${NOT_A_MONITOR}; ${FOLLOW_PROTOCOLS}.`,
+  'If symptoms appear during a ride, stop the ride and follow the rider’s autonomic dysreflexia plan; call emergency services if symptoms do not settle.',
+];
+
+/** One line under every page and e-mail that says what Kinloop is and is not. */
+export const FOOTER_LINE = `Kinloop helps clinics supervise home FES cycling. ${NOT_A_MONITOR}; ${FOLLOW_PROTOCOLS}.`;
 
 export interface ScreeningItem {
   id: string;

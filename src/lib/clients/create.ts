@@ -1,8 +1,7 @@
-import type { Knex } from 'knex';
 import { IANAZone } from 'luxon';
 import { z } from 'zod';
-import { staffClinic } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope, type Db } from '../data';
 import type { ClientRow } from '../db/tables';
 import { badRequest } from '../http/errors';
 import { calendarDate, line } from '../validation/fields';
@@ -24,9 +23,9 @@ export const clientInputSchema = z
   .strict();
 
 /** A primary therapist is a therapist or admin of the client's own clinic whose account is active; anything else is a 400 on the field. */
-export async function checkPrimaryTherapist(knex: Knex, clinicId: string, userId: string | null | undefined): Promise<void> {
+export async function checkPrimaryTherapist(db: Db, clinicId: string, userId: string | null | undefined): Promise<void> {
   if (!userId) return;
-  const member = await knex('memberships as m')
+  const member = await db('memberships as m')
     .join('users as u', 'u.id', 'm.user_id')
     .where({ 'm.clinic_id': clinicId, 'm.user_id': userId })
     .whereIn('m.role', ['therapist', 'admin'])
@@ -39,11 +38,11 @@ export async function checkPrimaryTherapist(knex: Knex, clinicId: string, userId
 }
 
 export async function createClient(ctx: RequestContext, input: z.infer<typeof clientInputSchema>) {
-  const clinicId = staffClinic(ctx.viewer, ['admin', 'therapist'], input.clinicId);
-  await checkPrimaryTherapist(ctx.knex, clinicId, input.primaryTherapistId);
-  const [row] = await ctx.knex<ClientRow>('clients')
+  const clinic = scope(ctx).clinic(['admin', 'therapist'], input.clinicId);
+  const clinicId = clinic.id;
+  await checkPrimaryTherapist(clinic.db, clinicId, input.primaryTherapistId);
+  const [row] = await clinic.db<ClientRow>('clients')
     .insert({
-      clinic_id: clinicId,
       display_name: input.name,
       time_zone: input.timezone,
       date_of_birth: input.dateOfBirth ?? null,
@@ -56,6 +55,6 @@ export async function createClient(ctx: RequestContext, input: z.infer<typeof cl
       primary_therapist_id: input.primaryTherapistId ?? (ctx.viewer.memberships.some((m) => m.clinicId === clinicId && m.role === 'therapist') ? ctx.viewer.userId : null),
     })
     .returning('*');
-  await auditAs(ctx, { action: 'client.create', clinicId, clientId: row.id, recordType: 'client', recordId: row.id });
+  await clinic.audit({ action: 'client.create', clientId: row.id, recordType: 'client', recordId: row.id });
   return { id: row.id };
 }

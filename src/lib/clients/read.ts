@@ -1,7 +1,6 @@
 import { z } from 'zod';
-import { accessClient, visibleClients } from '../auth/access';
-import { auditListed, type RequestContext } from '../auth/context';
-import { byNameSql, whereNameHasWords } from '../db/name-search';
+import type { RequestContext } from '../auth/context';
+import { byNameSql, scope, whereNameHasWords } from '../data';
 import { line } from '../validation/fields';
 import { clientView } from './view';
 
@@ -18,24 +17,26 @@ export const clientListQuerySchema = z
 export type ClientListQuery = z.infer<typeof clientListQuerySchema>;
 
 export async function listVisibleClients(ctx: RequestContext, query: ClientListQuery = clientListQuerySchema.parse({})) {
+  const s = scope(ctx);
   const matching = () =>
-    visibleClients(ctx.knex, ctx.viewer).modify((q) => {
+    s.clients().modify((q) => {
       whereNameHasWords(q, 'display_name', query.q);
       if (query.linked === '1') q.whereIn('id', ctx.viewer.carerOf);
     });
   const [{ count }] = await matching().count({ count: '*' });
   const rows = await matching().orderByRaw(byNameSql('display_name', 'id')).offset(query.offset).limit(query.limit);
-  await auditListed(ctx, 'clients.list', rows);
+  await s.listed('clients.list', rows);
   const total = Number(count);
   const next = query.offset + rows.length;
   return { clients: rows.map(clientView), total, offset: query.offset, limit: query.limit, nextOffset: next < total ? next : null };
 }
 
 export async function readClient(ctx: RequestContext, clientId: string) {
-  const row = await accessClient(ctx, clientId, 'read', 'client.view');
-  const carers = await ctx.knex('carer_links as l')
+  const client = await scope(ctx).client(clientId, 'read', 'client.view');
+  const row = client.row;
+  const carers = await client.db('carer_links as l')
     .join('users as u', 'u.id', 'l.carer_user_id')
-    .where({ 'l.client_id': row.id, 'l.active': true })
+    .where({ 'l.active': true })
     .orderBy('u.name')
     .select('u.id', 'u.name', 'l.relationship');
   return { ...clientView(row), carers: carers.map((c) => ({ userId: c.id, name: c.name, relationship: c.relationship })) };

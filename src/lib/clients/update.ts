@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { accessClient } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
 import { checkPrimaryTherapist, clientInputSchema } from './create';
 import { readClient } from './read';
 
@@ -35,10 +35,10 @@ const COLUMNS: Record<string, string> = {
 };
 
 export async function updateClient(ctx: RequestContext, clientId: string, input: z.infer<typeof clientUpdateSchema>) {
-  const client = await accessClient(ctx, clientId, 'manage', 'client.update', { fields: Object.keys(input) });
-  await checkPrimaryTherapist(ctx.knex, client.clinic_id, input.primaryTherapistId);
+  const client = await scope(ctx).client(clientId, 'manage', 'client.update', { fields: Object.keys(input) });
+  await checkPrimaryTherapist(client.db, client.clinicId, input.primaryTherapistId);
   const changes = Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined).map(([k, v]) => [COLUMNS[k], k === 'injuryLevel' && typeof v === 'string' ? v.toUpperCase() : v]));
-  if (Object.keys(changes).length) await ctx.knex('clients').where({ id: client.id }).update({ ...changes, updated_at: ctx.knex.fn.now() });
-  await auditAs(ctx, { action: 'client.changed', clinicId: client.clinic_id, clientId: client.id, detail: { fields: Object.keys(input) } });
+  if (Object.keys(changes).length) await client.db('clients').update({ ...changes, updated_at: client.db.fn.now() });
+  await client.audit({ action: 'client.changed', detail: { fields: Object.keys(input) } });
   return readClient(ctx, client.id);
 }

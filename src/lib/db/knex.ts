@@ -16,7 +16,7 @@ export function connect(url: string, poolMax = 2): Knex {
 
 /** The process-wide connection pool, as the app's role. */
 export function db(): Knex {
-  instance ??= connect(config().databaseUrl, Number(process.env.KINLOOP_DB_POOL ?? 10));
+  instance ??= connect(config().databaseUrl, config().dbPool);
   return instance;
 }
 

@@ -11,6 +11,8 @@ export interface ClinicRow {
   time_zone: string;
   /** Gross efficiency behind energy estimates; null: Kinloop's default. */
   fes_efficiency_pct: string | null;
+  /** BCP 47; null takes the default from the time zone (src/lib/time/locale.ts). */
+  locale: string | null;
   created_at: Date;
 }
 

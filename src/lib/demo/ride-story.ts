@@ -30,12 +30,13 @@
 // - wren: the program started 90 days ago but was paused until the loan cycle
 //   arrived, up to the Sunday before last; a few sessions since, too few to
 //   compare power or current with; no flags.
-import { addDays } from '../time/local-date';
-import { isoWeekOf, localDate } from '../time/iso-week';
+import { isoWeekOf } from '../time/iso-week';
+import { addDays, daysFrom, localDate } from '../time/local-date';
 import { between, integerBetween, mulberry32, seedOf } from './prng';
 import type { NamedChannel, RideSpec } from './ride-generator';
 import { RIDE_LAYOUTS, type LayoutKey } from './ride-layouts';
-import { datesOnWeekdays, daysBefore, daysBetween, mondayWeeksBack, wallTime } from './ride-schedule';
+import { datesOnWeekdays, daysBefore, mondayWeeksBack } from './ride-schedule';
+import { wallTime } from '../time/zoned';
 import { DEMO_CLIENTS, type DemoClient } from './scenario';
 
 export interface DemoRide {
@@ -275,7 +276,7 @@ function rideDates(ctx: Context): string[] {
   const usual = datesOnWeekdays(ctx.programStart, ctx.today, ctx.story.weekdays);
   const sunday = isoWeekOf(ctx.programStart, ctx.timeZone).sunday;
   const firstWeek = datesOnWeekdays(ctx.programStart, sunday < ctx.today ? sunday : ctx.today, [1, 2, 3, 4, 5, 6, 7]);
-  const target = Math.ceil((SESSIONS_PER_WEEK * (daysBetween(ctx.programStart, sunday) + 1)) / 7);
+  const target = Math.ceil((SESSIONS_PER_WEEK * (daysFrom(ctx.programStart, sunday) + 1)) / 7);
   const extra = firstWeek.filter((d) => !usual.includes(d)).slice(0, Math.max(0, target - usual.filter((d) => d <= sunday).length));
   return [...usual, ...extra].sort();
 }
@@ -284,7 +285,7 @@ function clientRides(ctx: Context): Planned[] {
   const pause = pauseOf(ctx);
   const dates = rideDates(ctx).filter((d) => pause === null || d < pause.from || d > pause.to);
   if (dates.length === 0) return [];
-  const rides = dates.map((date) => plannedRide(ctx, date, daysBetween(dates[0], date))).filter((r) => endMs(r.spec) <= ctx.now.getTime());
+  const rides = dates.map((date) => plannedRide(ctx, date, daysFrom(dates[0], date))).filter((r) => endMs(r.spec) <= ctx.now.getTime());
   return TWISTS[ctx.key]?.(rides, ctx) ?? rides;
 }
 

@@ -2,7 +2,7 @@
 // upload: each generated file is stored in object storage, registered as an
 // upload and parsed by the ingest job's own code, so the seed exercises the
 // parser on every layout. Then prescriptions, pauses and flags follow.
-import type { Knex } from 'knex';
+import type { Db, Query } from '../data/db';
 import { randomUUID, createHash } from 'node:crypto';
 import { Readable } from 'node:stream';
 import { processUpload } from '../ingest/process';
@@ -15,7 +15,7 @@ import { demoPauses, demoPrescriptions, demoRidePlan } from './ride-story';
 import { DEMO_CARERS, DEMO_CLIENTS } from './scenario';
 import type { SeededIds } from './seed';
 
-export async function seedDemoRides(knex: Knex, ids: SeededIds, now: Date): Promise<{ files: number; flags: number }> {
+export async function seedDemoRides(knex: Db, ids: SeededIds, now: Date): Promise<{ files: number; flags: number }> {
   const prescriptions = demoPrescriptions(now);
   for (const [key, versions] of Object.entries(prescriptions)) {
     const client = DEMO_CLIENTS.find((c) => c.key === key)!;

@@ -1,4 +1,4 @@
-import type { Knex } from 'knex';
+import type { Db, Query } from '../data/db';
 import { DateTime } from 'luxon';
 import { hashPassword } from '../auth/password';
 import { DEMO_CARERS, DEMO_CLIENTS, DEMO_CLINIC, DEMO_STAFF } from './scenario';
@@ -17,7 +17,7 @@ export interface SeededIds {
 }
 
 /** Seeds the demo scenario (people, then six months of rides) into an empty database; null when it already has a clinic. */
-export async function seedDemoIfEmpty(knex: Knex, options: SeedOptions): Promise<(SeededIds & { files: number; flags: number }) | null> {
+export async function seedDemoIfEmpty(knex: Db, options: SeedOptions): Promise<(SeededIds & { files: number; flags: number }) | null> {
   const existing = await knex('clinics').first('id');
   if (existing) return null;
   const now = options.now ?? new Date();
@@ -25,7 +25,7 @@ export async function seedDemoIfEmpty(knex: Knex, options: SeedOptions): Promise
   return { ...ids, ...(await seedDemoRides(knex, ids, now)) };
 }
 
-export async function seedDemoPeople(knex: Knex, { password, now = new Date() }: SeedOptions): Promise<SeededIds> {
+export async function seedDemoPeople(knex: Db, { password, now = new Date() }: SeedOptions): Promise<SeededIds> {
   const passwordHash = await hashPassword(password);
   return knex.transaction(async (trx) => {
     const [clinic] = await trx('clinics').insert({ name: DEMO_CLINIC.name, time_zone: DEMO_CLINIC.timeZone }).returning('id');

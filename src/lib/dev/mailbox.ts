@@ -1,8 +1,8 @@
 import { readdir, readFile } from 'node:fs/promises';
 import path from 'node:path';
-import { staffClinic } from '../auth/access';
 import type { RequestContext } from '../auth/context';
 import { hashToken } from '../auth/tokens';
+import { scope } from '../data';
 import { config } from '../config';
 
 export interface CapturedEmail {
@@ -21,36 +21,6 @@ export interface CapturedEmail {
 const SCAN_LIMIT = 2000;
 const BATCH = 100;
 
-/**
- * The clinics an admin administers and the e-mail addresses of the people
- * who belong only to those clinics: staff, clients with an account, and the
- * clients' active carers. A person who also belongs to another clinic is left
- * out: their reset link would open that clinic too.
- */
-async function ownPeople(ctx: RequestContext, clinics: string[]): Promise<Set<string>> {
-  const rows: { email: string }[] = await ctx.knex
-    .with('belongs', (b) =>
-      b
-        .select('user_id', 'clinic_id')
-        .from('memberships')
-        .union((u) => u.select('user_id', 'clinic_id').from('clients').whereNotNull('user_id').whereNull('archived_at'))
-        .union((u) =>
-          u
-            .select('l.carer_user_id as user_id', 'c.clinic_id')
-            .from('carer_links as l')
-            .join('clients as c', 'c.id', 'l.client_id')
-            .where('l.active', true)
-            .whereNull('c.archived_at'),
-        ),
-    )
-    .from('users as u')
-    .join('belongs as b', 'b.user_id', 'u.id')
-    .groupBy('u.id', 'u.email')
-    .havingRaw('bool_and(b.clinic_id = ANY(?::uuid[]))', [clinics])
-    .select(ctx.knex.raw('lower(u.email) as email'));
-  return new Set(rows.map((r) => r.email));
-}
-
 const INVITE_LINK = /\/invite\/([A-Za-z0-9_-]{20,200})/g;
 
 /**
@@ -63,7 +33,7 @@ async function visibleTo(ctx: RequestContext, clinics: string[], people: Set<str
   for (const m of messages) tokens.set(m, [...`${m.text}\n${m.html}`.matchAll(INVITE_LINK)].map((x) => hashToken(x[1])));
   const hashes = [...new Set([...tokens.values()].flat())];
   const invitationClinic = new Map<string, string>(
-    hashes.length ? (await ctx.knex('invitations').whereIn('token_hash', hashes).select('token_hash', 'clinic_id')).map((r) => [r.token_hash, r.clinic_id]) : [],
+    hashes.length ? (await scope(ctx).invitations().whereIn('token_hash', hashes).select('token_hash', 'clinic_id')).map((r) => [r.token_hash, r.clinic_id]) : [],
   );
   return messages.filter((m) => {
     const links = tokens.get(m)!;
@@ -79,10 +49,9 @@ async function visibleTo(ctx: RequestContext, clinics: string[], people: Set<str
  * another clinic would open that clinic's records.
  */
 export async function readMailbox(ctx: RequestContext, limit = 100): Promise<CapturedEmail[] | null> {
-  staffClinic(ctx.viewer, ['admin']);
+  const { clinics, addresses: people } = await scope(ctx).adminsPeople();
   const dir = config().mailboxDir;
   if (!dir) return null;
-  const clinics = ctx.viewer.memberships.filter((m) => m.role === 'admin').map((m) => m.clinicId);
   let names: string[];
   try {
     names = (await readdir(dir)).filter((n) => n.endsWith('.json'));
@@ -90,7 +59,6 @@ export async function readMailbox(ctx: RequestContext, limit = 100): Promise<Cap
     return [];
   }
   names.sort().reverse();
-  const people = await ownPeople(ctx, clinics);
   const shown: CapturedEmail[] = [];
   for (let at = 0; at < Math.min(names.length, SCAN_LIMIT) && shown.length < limit; at += BATCH) {
     const batch = await Promise.all(

@@ -1,11 +1,11 @@
 import { z } from 'zod';
-import { accessClient } from '../auth/access';
 import type { RequestContext } from '../auth/context';
+import { scope, type Query } from '../data';
 import type { CheckRow, RideRow } from '../db/tables';
 import { fileSlug } from '../http/download';
 import { clinicEfficiencyPct } from '../reports/energy-settings';
-import { localDate } from '../time/iso-week';
-import { addDays, isLocalDate, startOfLocalDay } from '../time/local-date';
+import { addDays, isLocalDate, localDate } from '../time/local-date';
+import { startOfLocalDay } from '../time/zoned';
 import { fhirBundle } from './fhir';
 
 const localDay = (label: string) => z.string().refine(isLocalDate, `${label}: use the form YYYY-MM-DD.`);
@@ -16,17 +16,18 @@ export const fhirQuerySchema = z
 
 /** A client's sessions and checks from `from` to `to` (local days, both included; open ends take everything) as a FHIR R4 collection. */
 export async function clientFhir(ctx: RequestContext, clientId: string, query: z.infer<typeof fhirQuerySchema>) {
-  const client = await accessClient(ctx, clientId, 'read', 'fhir.export', query);
+  const grant = await scope(ctx).client(clientId, 'read', 'fhir.export', query);
+  const client = grant.row;
   const tz = client.time_zone;
   const after = query.from ? new Date(startOfLocalDay(query.from, tz)) : null;
   const before = query.to ? new Date(startOfLocalDay(addDays(query.to, 1), tz)) : null;
-  const within = (column: string) => (q: import('knex').Knex.QueryBuilder) => {
+  const within = (column: string) => (q: Query) => {
     if (after) q.where(column, '>=', after);
     if (before) q.where(column, '<', before);
   };
-  const rides = await ctx.knex<RideRow>('rides').where({ client_id: client.id }).modify(within('started_at')).orderBy('started_at');
-  const checks: CheckRow[] = await ctx.knex('checks').where({ client_id: client.id }).modify(within('taken_at')).orderBy('taken_at');
-  const clinic = await ctx.knex('clinics').where({ id: client.clinic_id }).first('id', 'name', 'fes_efficiency_pct');
+  const rides: RideRow[] = await grant.db<RideRow>('rides').modify(within('started_at')).orderBy('started_at');
+  const checks: CheckRow[] = await grant.db('checks').modify(within('taken_at')).orderBy('taken_at');
+  const clinic = await grant.db('clinics').where({ id: client.clinic_id }).first('id', 'name', 'fes_efficiency_pct');
   const bp = (s: number | null, d: number | null) => (s === null || d === null ? null : { systolic: s, diastolic: d });
   const now = new Date();
   const bundle = fhirBundle({

@@ -9,7 +9,7 @@ import type { Bundle, BundleEntry, CodeableConcept, Observation, ObservationComp
 import { orderedChannels } from '../../components/rides/channel-order';
 import type { RideRow } from '../db/tables';
 import { fesEnergyKcal, sessionWorkJ } from '../reports/energy';
-import { roundTo } from '../rides/metrics';
+import { roundTo } from '../analytics/round';
 import { channelConcept, KINLOOP_CODES, KINLOOP_CONCEPTS, KINLOOP_IDS, kinloopCodeSystem, LOINC, LOINC_CODES, OBSERVATION_CATEGORY, UCUM, UNITS } from './fhir-codes';
 
 export interface FhirClient {

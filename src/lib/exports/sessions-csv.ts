@@ -2,7 +2,7 @@
 import { orderedChannels } from '../../components/rides/channel-order';
 import type { RideRow } from '../db/tables';
 import { fesEnergyKcal, sessionWorkJ } from '../reports/energy';
-import { roundTo } from '../rides/metrics';
+import { roundTo } from '../analytics/round';
 import { toCsv } from './csv';
 
 export interface SessionCsvRow {

@@ -1,8 +1,9 @@
 // Which session-flag conditions hold, as of now or as of an earlier moment,
 // with the data we have now. Rules: ./missed-sessions.ts, ./metric-shift.ts,
 // ./short-session.ts.
-import { isoWeekOf, localDate, nextWeek } from '../time/iso-week';
-import { startOfLocalDay } from '../time/local-date';
+import { isoWeekOf, nextWeek } from '../time/iso-week';
+import { localDate } from '../time/local-date';
+import { startOfLocalDay } from '../time/zoned';
 import { prepareFlagData, type Assessment, type FlagData, type Rules } from './flag-data';
 import { assessMetricShift } from './metric-shift';
 import { assessMissedSessions, missedEpisodeHeld } from './missed-sessions';

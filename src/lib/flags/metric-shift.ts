@@ -10,7 +10,9 @@
 // suspended), are left out.
 import { median } from '../analytics/median';
 import { sessionsAsOf, type Assessment, type FlagData } from './flag-data';
-import { milliampsPerWatt, percent, roundTo, watts } from './format';
+import { roundTo } from '../analytics/round';
+import { milliampsPerWatt, percent, watts } from '../format/numbers';
+import { REASON_LOCALE } from './words';
 import type { FlagCondition, FlagSession, MetricShiftEvidence } from './types';
 
 interface MetricRule {
@@ -29,7 +31,7 @@ const RULES: Record<MetricRule['kind'], MetricRule> = {
     kind: 'power_drop',
     metric: 'meanPowerW',
     label: 'mean power',
-    unit: watts,
+    unit: (v) => watts(v, REASON_LOCALE),
     direction: -1,
     reviewPct: (data) => data.thresholds.powerDropReviewPct,
     urgentPct: (data) => data.thresholds.powerDropUrgentPct,
@@ -38,12 +40,24 @@ const RULES: Record<MetricRule['kind'], MetricRule> = {
     kind: 'current_rise',
     metric: 'currentPerWattMaPerW',
     label: 'current per watt',
-    unit: milliampsPerWatt,
+    unit: (v) => milliampsPerWatt(v, REASON_LOCALE),
     direction: 1,
     reviewPct: (data) => data.thresholds.currentRiseReviewPct,
     urgentPct: () => null,
   },
 };
+
+/**
+ * The sessions the usual level is the median of: up to `baselineSessions` of
+ * the eligible ones (counted, unpaused, with the metric; oldest first) before
+ * the latest two; null while fewer than `baselineMinSessions` come before them.
+ * The client page's chart takes its baseline line from here too, so a
+ * baseline reads the same in the flag and in the chart.
+ */
+export function usualLevel(eligibleValues: number[], thresholds: Pick<FlagData['thresholds'], 'baselineSessions' | 'baselineMinSessions'>): number | null {
+  const before = eligibleValues.slice(0, -2).slice(-thresholds.baselineSessions);
+  return before.length >= thresholds.baselineMinSessions ? median(before) : null;
+}
 
 function valueOf(session: FlagSession, metric: MetricRule['metric']): number | null {
   const value = session[metric];
@@ -66,7 +80,7 @@ export function assessMetricShift(kind: MetricRule['kind'], data: FlagData, asOf
       status: `only ${before.length} counted sessions came before the last two, and ${data.thresholds.baselineMinSessions} are needed to know the usual ${rule.label}`,
     };
   }
-  const baseline = median(before.map((s) => valueOf(s.session, rule.metric)!))!;
+  const baseline = usualLevel(eligible.map((s) => valueOf(s.session, rule.metric)!), data.thresholds)!;
   const values = latest.map((s) => valueOf(s.session, rule.metric)!);
   const shown = `${values.map(rule.unit).join(' and ')} in the last two sessions`;
   if (baseline <= 0) {
@@ -89,7 +103,7 @@ export function assessMetricShift(kind: MetricRule['kind'], data: FlagData, asOf
     kind,
     severity,
     anchor: latest[1].session.id,
-    reason: `${capitalise(rule.label)} was ${shown}, ${changes.map(percent).join(' and ')} ${side} the usual ${rule.unit(baseline)}.`,
+    reason: `${capitalise(rule.label)} was ${shown}, ${changes.map((c) => percent(c, REASON_LOCALE)).join(' and ')} ${side} the usual ${rule.unit(baseline)}.`,
     evidence: {
       metric: rule.metric,
       baseline,

@@ -9,11 +9,14 @@
 //   the first prescription's effective date, when there was none since) up to
 //   and including the day judged. Paused days and days without a prescription
 //   are not counted.
-import { isoWeekOf, localDate, parseIsoWeek, previousWeek, type IsoWeek } from '../time/iso-week';
-import { addDays } from '../time/local-date';
+import { isoWeekOf, parseIsoWeek, previousWeek, type IsoWeek } from '../time/iso-week';
+import { addDays, localDate } from '../time/local-date';
 import type { AdherenceWeek } from '../adherence/types';
 import { sessionsAsOf, type Assessment, type FlagData } from './flag-data';
-import { count } from './format';
+import { count } from '../format/numbers';
+import { formatDate, weekOf } from '../time/format';
+import { missedWeekReason, noSessionReason } from './reason';
+import { REASON_LOCALE } from './words';
 import type { FlagCondition } from './types';
 
 const WEEK_ANCHOR = /^\d{4}-W\d{2}$/;
@@ -33,11 +36,7 @@ function latestJudgedWeek(data: FlagData, today: string): { week: IsoWeek; statu
 
 function weekCondition(data: FlagData, week: IsoWeek, status: AdherenceWeek): FlagCondition | null {
   if (status.counted >= status.prescribed) return null;
-  const span = `week ${week.isoWeek} (${week.monday} to ${week.sunday})`;
-  const reason =
-    status.counted === 0
-      ? `No session counted in ${span}, where ${status.prescribed} ${status.prescribed === 1 ? 'was' : 'were'} prescribed.`
-      : `Only ${status.counted} of the ${status.prescribed} prescribed sessions counted in ${span}.`;
+  const reason = missedWeekReason({ monday: week.monday, prescribed: status.prescribed, counted: status.counted }, REASON_LOCALE);
   return {
     kind: 'missed_sessions',
     severity: 'review',
@@ -89,10 +88,7 @@ function gapAsOf(data: FlagData, asOfMs: number): Gap | null {
 function gapCondition(data: FlagData, gap: Gap): FlagCondition | null {
   const limitDays = data.thresholds.missedNoSessionDays;
   if (gap.days <= limitDays) return null;
-  const paused = gap.pausedDays > 0 ? ` (${count(gap.pausedDays, 'paused day')} not counted)` : '';
-  const reason = gap.lastSessionId
-    ? `No session for ${gap.days} days${paused} since the last one on ${gap.since}.`
-    : `No session in the ${gap.days} days${paused} since the program started on ${gap.since}.`;
+  const reason = noSessionReason(gap, REASON_LOCALE);
   return {
     kind: 'missed_sessions',
     severity: 'urgent',
@@ -117,13 +113,13 @@ export function assessMissedSessions(data: FlagData, asOfMs: number): Assessment
     (gap && gapCondition(data, gap)) ?? (judged && weekCondition(data, judged.week, judged.status)) ?? null;
 
   const weekText = judged
-    ? `week ${judged.week.isoWeek} had ${judged.status.counted} of the ${judged.status.prescribed} prescribed sessions counted`
+    ? `${weekOf(judged.week.monday, REASON_LOCALE)} had ${judged.status.counted} of the ${judged.status.prescribed} prescribed sessions counted`
     : 'there was no finished, unpaused week with a prescription';
   const gapText = !gap
     ? ''
     : gap.lastSessionId
-      ? `, and the latest session was on ${gap.since}${gap.days > 0 ? ` (${count(gap.days, 'program day')} without one since)` : ''}`
-      : `, and there was no session in the ${count(gap.days, 'program day')} since the start on ${gap.since}`;
+      ? `, and the latest session was on ${formatDate(gap.since, REASON_LOCALE, 'weekdayDayMonth')}${gap.days > 0 ? ` (${count(gap.days, 'program day')} without one since)` : ''}`
+      : `, and there was no session in the ${count(gap.days, 'program day')} since the start on ${formatDate(gap.since, REASON_LOCALE, 'weekdayDayMonth')}`;
   return { condition, status: `${weekText}${gapText}` };
 }
 

@@ -21,7 +21,7 @@
 // leaves live depends on the stored flags only through resolved episodes, so
 // neither the order nor the time at which files arrived changes the result.
 import { latestHeldBetween, assessAsOf } from './evaluate';
-import { startOfLocalDay } from '../time/local-date';
+import { startOfLocalDay } from '../time/zoned';
 import { prepareFlagData, type FlagData } from './flag-data';
 import {
   FLAG_SEVERITIES,

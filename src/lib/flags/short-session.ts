@@ -4,7 +4,8 @@
 // judged, and three are needed.
 import { countingSeconds } from '../adherence/session-status';
 import { sessionsAsOf, type Assessment, type FlagData } from './flag-data';
-import { count, minutes } from './format';
+import { count, minutes } from '../format/numbers';
+import { REASON_LOCALE } from './words';
 
 export function assessShortSessions(data: FlagData, asOfMs: number): Assessment {
   const judged = sessionsAsOf(data, asOfMs).filter((s) => s.status !== 'unprescribed' && !s.paused);
@@ -26,10 +27,10 @@ export function assessShortSessions(data: FlagData, asOfMs: number): Assessment 
     return { condition: null, status: `${short.length} of the last 3 sessions ${short.length === 1 ? 'was' : 'were'} short` };
   }
   const detail = rows
-    .map((r, i) => (r.short ? `${minutes(r.durationS)} of ${versions[i].minutesPerSession}` : null))
+    .map((r, i) => (r.short ? `${minutes(r.durationS, REASON_LOCALE)} of ${minutes(versions[i].minutesPerSession * 60, REASON_LOCALE)}` : null))
     .filter((text) => text !== null)
     .join(' and ');
-  const reason = `${short.length} of the last 3 sessions were shorter than ${pct} % of the prescribed time (${detail} minutes).`;
+  const reason = `${short.length} of the last 3 sessions were shorter than ${pct} % of the prescribed time (${detail}).`;
   return {
     condition: {
       kind: 'short_session',

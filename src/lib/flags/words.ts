@@ -1,5 +1,12 @@
 // The plain words for flag kinds and severities, the same in every page and e-mail.
-import { FLAG_SEVERITIES, type FlagKind, type FlagSeverity } from './types';
+import type { FlagKind, FlagSeverity } from './types';
+
+/**
+ * The locale of the reason stored with a flag (used by e-mails and the audit
+ * trail); pages word the dates of a reason again in the clinic's locale
+ * (src/lib/flags/reason.ts).
+ */
+export const REASON_LOCALE = 'en-GB';
 
 export const FLAG_KIND_WORDS: Record<FlagKind, string> = {
   missed_sessions: 'Missed sessions',
@@ -16,8 +23,3 @@ export const FLAG_SEVERITY_WORDS: Record<FlagSeverity, string> = {
   review: 'Review',
   info: 'Info',
 };
-
-/** 0 for the most severe; a client without flags sorts after every severity. */
-export function severityRank(severity: FlagSeverity | undefined): number {
-  return severity ? FLAG_SEVERITIES.indexOf(severity) : FLAG_SEVERITIES.length;
-}

@@ -1,4 +1,4 @@
-import { db } from '../db/knex';
+import { databaseAnswers } from '../data';
 import { mailTransport } from '../mail/transport';
 import { storageReachable } from '../storage/s3';
 
@@ -16,7 +16,7 @@ const probe = (p: () => Promise<unknown>): Promise<Status> =>
 
 export async function health(): Promise<{ db: Status; storage: Status; mail: Status }> {
   const [dbStatus, storage, mail] = await Promise.all([
-    probe(() => db().raw('select 1')),
+    probe(databaseAnswers),
     probe(() => storageReachable()),
     probe(() => mailTransport().verify()),
   ]);

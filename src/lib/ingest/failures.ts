@@ -1,7 +1,7 @@
 // The terminal `failed` state: a file Kinloop could not read after every try
 // (not a file the parser refused, which is `rejected`). The uploader and the
 // clinic see why and can try again.
-import type { Knex } from 'knex';
+import type { Db, Query } from '../data/db';
 import type { UploadRow } from '../db/tables';
 import { settleFollowers } from './register';
 
@@ -17,7 +17,7 @@ export function failureMessage(err: unknown): string {
 }
 
 /** Marks a queued upload failed with the reason, and its waiting copies with it. */
-export async function markUploadFailed(knex: Knex, uploadId: string, reason: string): Promise<boolean> {
+export async function markUploadFailed(knex: Db, uploadId: string, reason: string): Promise<boolean> {
   return knex.transaction(async (trx) => {
     const row = await trx<UploadRow>('uploads').where({ id: uploadId }).forUpdate().first('status');
     if (row?.status !== 'queued') return false;

@@ -1,7 +1,7 @@
 // The parse job: turns a stored ride file into a session, or marks the upload
 // rejected with the parser's error. The file itself is never touched, so a
 // rejected upload can be parsed again later (after an import profile changed).
-import type { Knex } from 'knex';
+import { lock, type Db, type Query } from '../data/db';
 import type { ClientRow, DeviceRow, ImportProfileRow, RideRow, StartedAtSource, UploadRow } from '../db/tables';
 import { readRideFile, type RideReading } from '../rides/reading';
 import { SERIES_FORMAT } from '../rides/series-codec';
@@ -21,7 +21,7 @@ export type RideReader = (bytes: Uint8Array, options: ParseOptions) => Promise<R
 
 export const readInThisProcess: RideReader = async (bytes, options) => readRideFile(bytes, options);
 
-export async function processUpload(knex: Knex, uploadId: string, read: RideReader = readInThisProcess): Promise<ProcessOutcome> {
+export async function processUpload(knex: Db, uploadId: string, read: RideReader = readInThisProcess): Promise<ProcessOutcome> {
   const upload = await knex<UploadRow>('uploads').where({ id: uploadId }).first();
   if (!upload || upload.status !== 'queued') return 'skipped';
   await knex('uploads').where({ id: uploadId }).increment('attempts', 1);
@@ -66,7 +66,7 @@ export async function processUpload(knex: Knex, uploadId: string, read: RideRead
   const outcome = await knex.transaction(async (trx) => {
     // One client's files are placed one at a time, so two copies of a ride
     // parsed at once cannot both become sessions.
-    await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`rides:${client.id}`]);
+    await lock(trx, `rides:${client.id}`);
     // A second job for the same upload (a message re-sent by the sweeper) may have placed it meanwhile.
     if (!(await stillQueued(trx, uploadId))) return 'skipped' as const;
     const near = await trx<RideRow>('rides')
@@ -91,7 +91,7 @@ export async function processUpload(knex: Knex, uploadId: string, read: RideRead
 }
 
 /** Locks the upload's row for this transaction; false when another job has settled it meanwhile. */
-async function stillQueued(trx: Knex.Transaction, uploadId: string): Promise<boolean> {
+async function stillQueued(trx: Db, uploadId: string): Promise<boolean> {
   const row = await trx<UploadRow>('uploads').where({ id: uploadId }).forUpdate().first('status');
   return row?.status === 'queued';
 }
@@ -102,7 +102,7 @@ async function stillQueued(trx: Knex.Transaction, uploadId: string): Promise<boo
  * were a duplicate of, so they are queued to be read again: one of them may
  * now be the session. Returns their ids, to send their jobs after the commit.
  */
-async function dropRide(trx: Knex.Transaction, rideId: string): Promise<string[]> {
+async function dropRide(trx: Db, rideId: string): Promise<string[]> {
   const near = await trx<UploadRow>('uploads')
     .where({ duplicate_of_ride_id: rideId, status: 'duplicate' })
     .whereNull('duplicate_of_upload_id')
@@ -112,13 +112,13 @@ async function dropRide(trx: Knex.Transaction, rideId: string): Promise<string[]
   return near.map((r: { id: string }) => r.id);
 }
 
-async function profileById(knex: Knex, id: string): Promise<(ImportProfileRow & { mapping: ImportProfile }) | null> {
+async function profileById(knex: Db, id: string): Promise<(ImportProfileRow & { mapping: ImportProfile }) | null> {
   return (await knex<ImportProfileRow>('import_profiles').where({ id }).whereNull('archived_at').first()) ?? null;
 }
 
 /** Writes the session and its series (encoded); a reprocessed upload replaces its own session in place. */
 export async function saveRide(
-  trx: Knex.Transaction,
+  trx: Db,
   p: { upload: UploadRow; client: ClientRow; device: DeviceRow | null; summary: RideSummary; series: Uint8Array; startedAt: Date; source: StartedAtSource; warnings: string[] },
 ): Promise<string> {
   const s = p.summary;

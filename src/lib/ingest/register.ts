@@ -1,4 +1,4 @@
-import type { Knex } from 'knex';
+import { lock, type Db } from '../data/db';
 import type { UploadRow } from '../db/tables';
 import { QUEUES, sendJob } from '../jobs/queue';
 import type { StoredFile } from './receive';
@@ -16,12 +16,12 @@ export interface NewUpload extends StoredFile {
  * queued for parsing.
  */
 export async function registerUploads(
-  knex: Knex,
+  db: Db,
   p: { clientId: string; clinicId: string; userId: string; importProfileId: string | null; files: NewUpload[] },
 ): Promise<UploadRow[]> {
-  const rows = await knex.transaction(async (trx) => {
+  const rows = await db.transaction(async (trx) => {
     // Two uploads of the same bytes at once must not both be parsed.
-    await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`uploads:${p.clientId}`]);
+    await lock(trx, `uploads:${p.clientId}`);
     const out: UploadRow[] = [];
     for (const f of p.files) {
       const originals = await trx<UploadRow>('uploads')
@@ -83,7 +83,7 @@ function outcomeOf(original: UploadRow) {
  * that waited for it is never left queued and a copy of a file whose session
  * was later replaced or refused follows it.
  */
-export async function settleFollowers(trx: Knex.Transaction, originalId: string): Promise<void> {
+export async function settleFollowers(trx: Db, originalId: string): Promise<void> {
   const original = await trx<UploadRow>('uploads').where({ id: originalId }).first();
   if (!original || original.status === 'queued') return;
   await trx('uploads')

@@ -1,7 +1,7 @@
 // Housekeeping of ride files, run by the worker: uploads whose job was lost
 // are sent again, uploads that could not be read after every try are marked
 // failed, and stored objects that no upload names are deleted.
-import type { Knex } from 'knex';
+import type { Db, Query } from '../data/db';
 import type { UploadRow } from '../db/tables';
 import { deleteObjects, listObjects } from '../storage/s3';
 import { markUploadFailed } from './failures';
@@ -14,7 +14,7 @@ export const MAX_READ_ATTEMPTS = 7;
 /** Objects younger than this may belong to an upload still in progress. */
 export const ORPHAN_AFTER_MS = 60 * 60_000;
 
-export async function resendStaleUploads(knex: Knex, now = new Date()): Promise<{ resent: number; failed: number }> {
+export async function resendStaleUploads(knex: Db, now = new Date()): Promise<{ resent: number; failed: number }> {
   const stale = await knex<UploadRow>('uploads')
     .where({ status: 'queued' })
     .whereNull('duplicate_of_upload_id')
@@ -37,7 +37,7 @@ export async function resendStaleUploads(knex: Knex, now = new Date()): Promise<
  * names: what a request killed between storing a file and recording it, or a
  * delete that failed, left behind. Returns the deleted keys.
  */
-export async function sweepOrphanObjects(knex: Knex, { now = new Date(), prefix = 'rides/' } = {}): Promise<string[]> {
+export async function sweepOrphanObjects(knex: Db, { now = new Date(), prefix = 'rides/' } = {}): Promise<string[]> {
   const deleted: string[] = [];
   let token: string | undefined;
   do {
@@ -58,7 +58,7 @@ export async function sweepOrphanObjects(knex: Knex, { now = new Date(), prefix 
  * RESEND_AFTER_MS. Flag judgement waits for those; a failed or stuck upload
  * does not hold it back (when it is read at last, the flags are judged again).
  */
-export async function filesInFlight(knex: Knex, clientId: string, now = new Date()): Promise<boolean> {
+export async function filesInFlight(knex: Db, clientId: string, now = new Date()): Promise<boolean> {
   const row = await knex('uploads')
     .where({ client_id: clientId, status: 'queued' })
     .where('enqueued_at', '>=', new Date(now.getTime() - RESEND_AFTER_MS))

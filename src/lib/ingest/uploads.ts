@@ -1,8 +1,8 @@
-import type { Knex } from 'knex';
 import { z } from 'zod';
-import { accessClient, accessClientRecord, canManageClient } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import { canDownloadRaw, canReprocess } from '../auth/access';
+import type { RequestContext } from '../auth/context';
 import { config } from '../config';
+import { scope, type ClientGrant, type Db } from '../data';
 import type { UploadRow } from '../db/tables';
 import { badRequest, forbidden, HttpError } from '../http/errors';
 import { deleteObjects, getObjectStream } from '../storage/s3';
@@ -71,12 +71,10 @@ function readFields(fields: Record<string, string[]>): UploadFields {
 const unknownProfile = 'That import profile does not exist for this client’s clinic. Choose another or leave it on automatic detection.';
 
 /** Bytes of ride files a clinic stores (an object shared by copies of the same file counts once). */
-async function storedBytes(knex: Knex, clinicId: string): Promise<number> {
-  const { rows } = await knex.raw<{ rows: { bytes: string | null }[] }>(
-    'SELECT sum(byte_size) AS bytes FROM (SELECT DISTINCT ON (storage_key) byte_size FROM uploads WHERE clinic_id = ?) s',
-    [clinicId],
-  );
-  return Number(rows[0]?.bytes ?? 0);
+async function storedBytes(db: Db, clinicId: string): Promise<number> {
+  const sharedOnce = db('uploads').where({ clinic_id: clinicId }).distinctOn('storage_key').select('id');
+  const row = await db('uploads').whereIn('id', sharedOnce).sum('byte_size as bytes').first();
+  return Number(row?.bytes ?? 0);
 }
 
 const size = (bytes: number) => (bytes >= 1024 ** 3 ? `${(bytes / 1024 ** 3).toFixed(1)} GB` : `${(bytes / 1024 ** 2).toFixed(1)} MB`);
@@ -97,20 +95,21 @@ function quotaExceeded(used: number, quota: number): HttpError {
  * that deletes what was stored.
  */
 export async function uploadRideFiles(ctx: RequestContext, request: Request, waitMs: number) {
-  let clinicId = '';
-  let clientId = '';
+  let grant: ClientGrant | null = null;
   let used = 0;
   const quota = config().clinicStorageQuotaBytes;
   const received = await receiveRideFiles(request, async (fields, declaredBytes) => {
     const early = readFields(fields);
-    const client = await accessClient(ctx, early.clientId, 'contribute', 'upload.create');
-    clinicId = client.clinic_id;
-    clientId = client.id;
-    if (early.importProfileId) await checkProfile(ctx, early.importProfileId, clinicId);
-    used = await storedBytes(ctx.knex, clinicId);
+    const client = await scope(ctx).client(early.clientId, 'contribute', 'upload.create');
+    grant = client;
+    if (early.importProfileId) await checkProfile(client, early.importProfileId);
+    // The clinic's use counts every client's files, which the uploader cannot see.
+    used = await storedBytes(client.system('the clinic’s storage quota'), client.clinicId);
     if (used + declaredBytes > quota) throw quotaExceeded(used, quota);
-    return `rides/${clinicId}/${clientId}`;
+    return `rides/${client.clinicId}/${client.id}`;
   });
+  const client = grant as ClientGrant | null;
+  if (!client) throw new Error('the upload was received without its client');
   const keys = received.files.map((f) => f.storageKey);
   let rows: UploadRow[];
   try {
@@ -118,12 +117,12 @@ export async function uploadRideFiles(ctx: RequestContext, request: Request, wai
     if (fallback.length > 1 && fallback.length !== received.files.length) {
       throw badRequest(`Send one fallbackStartedAt for all files or one per file; got ${fallback.length} for ${received.files.length} files.`);
     }
-    if (importProfileId) await checkProfile(ctx, importProfileId, clinicId);
+    if (importProfileId) await checkProfile(client, importProfileId);
     const added = received.files.reduce((sum, f) => sum + f.byteSize, 0);
     if (used + added > quota) throw quotaExceeded(used, quota);
-    rows = await registerUploads(ctx.knex, {
-      clientId,
-      clinicId,
+    rows = await registerUploads(client.db, {
+      clientId: client.id,
+      clinicId: client.clinicId,
       userId: ctx.viewer.userId,
       importProfileId,
       files: received.files.map((f, i) => ({ ...f, fallbackStartedAt: fallback.length === 1 ? fallback[0] : (fallback[i] ?? null) })),
@@ -139,8 +138,8 @@ export async function uploadRideFiles(ctx: RequestContext, request: Request, wai
   return { files: settled.map(fileResult) };
 }
 
-async function checkProfile(ctx: RequestContext, profileId: string, clinicId: string): Promise<void> {
-  const ok = await ctx.knex('import_profiles').where({ id: profileId, clinic_id: clinicId }).whereNull('archived_at').first('id');
+async function checkProfile(client: ClientGrant, profileId: string): Promise<void> {
+  const ok = await client.db('import_profiles').where({ id: profileId, clinic_id: client.clinicId }).whereNull('archived_at').first('id');
   if (!ok) throw badRequest(unknownProfile);
 }
 
@@ -149,35 +148,29 @@ async function waitForOutcome(ctx: RequestContext, rows: UploadRow[], waitMs: nu
   let current = rows;
   while (current.some((r) => r.status === 'queued') && Date.now() < deadline) {
     await new Promise((r) => setTimeout(r, 150));
-    const fresh = await ctx.knex<UploadRow>('uploads').whereIn('id', rows.map((r) => r.id));
+    const fresh = await scope(ctx).uploads().whereIn('id', rows.map((r) => r.id));
     current = rows.map((r) => fresh.find((f) => f.id === r.id)!);
   }
   return current;
 }
 
-async function uploadFor(ctx: RequestContext, id: string, need: 'read' | 'manage', action: string) {
-  const found = uuid.safeParse(id).success ? await ctx.knex<UploadRow>('uploads').where({ id }).first() : undefined;
-  const { row } = await accessClientRecord(ctx, found, { what: 'That upload', type: 'upload', id }, need, action, { uploadId: id });
-  return row;
-}
+const uploadFor = (ctx: RequestContext, id: string, action: string) => scope(ctx).record('upload', id, 'read', action, { uploadId: id });
 
 export async function listUploads(ctx: RequestContext, clientId: string, limit = 100) {
-  const client = await accessClient(ctx, clientId, 'read', 'uploads.list');
-  const rows = await ctx.knex<UploadRow>('uploads').where({ client_id: client.id }).orderBy('uploaded_at', 'desc').limit(limit);
-  const staff = canManageClient(ctx.viewer, client);
-  // The same rule as reprocessUpload: the clinic, or the uploader of a file whose reading failed.
-  return rows.map((row) => ({ ...uploadView(row), canTryAgain: row.status === 'failed' && (staff || row.uploaded_by === ctx.viewer.userId) }));
+  const client = await scope(ctx).client(clientId, 'read', 'uploads.list');
+  const rows: UploadRow[] = await client.db('uploads').orderBy('uploaded_at', 'desc').limit(limit);
+  // The same rule as reprocessUpload, for the files whose reading failed.
+  return rows.map((row) => ({ ...uploadView(row), canTryAgain: row.status === 'failed' && canReprocess(ctx.viewer, row, client.row) }));
 }
 
 export async function readUpload(ctx: RequestContext, id: string) {
-  return uploadView(await uploadFor(ctx, id, 'read', 'upload.view'));
+  return uploadView((await uploadFor(ctx, id, 'upload.view')).row);
 }
 
 /** The stored bytes exactly as uploaded, for the uploader and the client's clinic staff. */
 export async function rawUpload(ctx: RequestContext, id: string) {
-  const row = await uploadFor(ctx, id, 'read', 'upload.download');
-  const client = await ctx.knex('clients').where({ id: row.client_id }).first('clinic_id');
-  if (row.uploaded_by !== ctx.viewer.userId && !canManageClient(ctx.viewer, client)) throw forbidden('Only the person who uploaded a file and the client’s clinic can download it.');
+  const { row, client } = await uploadFor(ctx, id, 'upload.download');
+  if (!canDownloadRaw(ctx.viewer, row, client.row)) throw forbidden('Only the person who uploaded a file and the client’s clinic can download it.');
   const { body, length } = await getObjectStream(row.storage_key);
   return { row, body, length };
 }
@@ -188,27 +181,27 @@ export async function rawUpload(ctx: RequestContext, id: string) {
  * profile changed); the person who uploaded a file may try again one that failed.
  */
 export async function reprocessUpload(ctx: RequestContext, id: string) {
-  const row = await uploadFor(ctx, id, 'read', 'upload.reprocess');
-  const client = await ctx.knex('clients').where({ id: row.client_id }).first('clinic_id');
-  const staff = canManageClient(ctx.viewer, client);
-  if (!staff && !(row.uploaded_by === ctx.viewer.userId && row.status === 'failed')) {
+  const { row, client } = await uploadFor(ctx, id, 'upload.reprocess');
+  if (!canReprocess(ctx.viewer, row, client.row)) {
     throw forbidden('Only the client’s clinic can have a file read again; the person who uploaded a file can try again when reading it failed.');
   }
   if (row.status === 'queued') return uploadView(row);
   let target = row;
   if (row.duplicate_of_upload_id) {
-    const original = await ctx.knex<UploadRow>('uploads').where({ id: row.duplicate_of_upload_id }).first();
+    const original: UploadRow | undefined = await client.db('uploads').where({ id: row.duplicate_of_upload_id }).first();
     // A copy that failed with its first copy is tried again through that one; any other copy has nothing of its own to read.
     if (!original || row.status !== 'failed' || original.status !== 'failed') {
       throw badRequest('This upload is a copy of an earlier file with the same bytes; reprocess that one instead.', { originalUploadId: row.duplicate_of_upload_id });
     }
     target = original;
   }
-  await ctx.knex.transaction(async (trx) => {
+  // canReprocess allowed it: the change is made as a contributor to the client (the same request's access, audited once).
+  const writer = await scope(ctx).client(client.id, 'contribute', 'upload.reprocess');
+  await writer.db.transaction(async (trx) => {
     await trx('uploads').where({ id: target.id }).update({ status: 'queued', enqueued_at: trx.fn.now(), error: null, attempts: 0 });
     if (target.id !== row.id) await trx('uploads').where({ id: row.id }).update({ status: 'queued', enqueued_at: trx.fn.now(), error: null });
   });
-  await auditAs(ctx, { action: 'upload.reprocess_queued', clientId: row.client_id, recordType: 'upload', recordId: target.id });
+  await scope(ctx).audit({ action: 'upload.reprocess_queued', clientId: row.client_id, recordType: 'upload', recordId: target.id });
   await enqueueParse([target.id]);
   return uploadView({ ...row, status: 'queued', error: null });
 }

@@ -1,5 +1,5 @@
 import { config } from '../config';
-import { db } from '../db/knex';
+import { workerDb } from '../data';
 import { failureMessage, markUploadFailed } from '../ingest/failures';
 import { processUpload } from '../ingest/process';
 import { resendStaleUploads, sweepOrphanObjects } from '../ingest/sweep';
@@ -41,25 +41,25 @@ export function startBackgroundWork(): Promise<void> {
     const parse = pool;
     await workQueue<{ uploadId: string }>(QUEUES.parseRide, async ({ uploadId }, attempt) => {
       try {
-        await processUpload(db(), uploadId, parse.read);
+        await processUpload(workerDb(), uploadId, parse.read);
       } catch (err) {
         console.error(`reading upload ${uploadId} failed (attempt ${attempt.retryCount + 1} of ${attempt.retryLimit + 1}):`, (err as Error).message);
         // The last try settles the upload as failed, so it never stays queued for ever.
         if (!attempt.last) throw err;
-        await markUploadFailed(db(), uploadId, `${failureMessage(err)} Kinloop tried ${attempt.retryLimit + 1} times.`);
+        await markUploadFailed(workerDb(), uploadId, `${failureMessage(err)} Kinloop tried ${attempt.retryLimit + 1} times.`);
       }
     });
     await registerFlagJobs();
     await (await queue()).schedule(QUEUES.scheduledMail, '0 * * * *');
     await workQueue(QUEUES.scheduledMail, async () => {
-      await sendScheduledEmails(db());
+      await sendScheduledEmails(workerDb());
     });
-    every(OUTBOX_POLL_MS, 'outbox delivery', () => deliverDueEmails(db()));
-    every(SWEEP_MS, 'upload sweep', () => resendStaleUploads(db()));
+    every(OUTBOX_POLL_MS, 'outbox delivery', () => deliverDueEmails(workerDb()));
+    every(SWEEP_MS, 'upload sweep', () => resendStaleUploads(workerDb()));
     // Stored weeks left stale (a threshold change, a seed, a refresh that failed), a page at a time.
-    every(SWEEP_MS, 'stored weeks', () => refreshStaleAdherence(db(), { maxClients: STALE_WEEKS_PER_SWEEP }));
+    every(SWEEP_MS, 'stored weeks', () => refreshStaleAdherence(workerDb(), { maxClients: STALE_WEEKS_PER_SWEEP }));
     every(ORPHAN_SWEEP_MS, 'orphan object sweep', async () => {
-      const deleted = await sweepOrphanObjects(db());
+      const deleted = await sweepOrphanObjects(workerDb());
       if (deleted.length) console.log(`orphan object sweep deleted ${deleted.length} object(s) no upload names`);
     });
   })();

@@ -1,5 +1,6 @@
-import type { Knex } from 'knex';
+import type { Db, Query } from '../data/db';
 import type { OutboxEmailRow } from '../db/tables';
+import { config } from '../config';
 import { mailTransport } from './transport';
 
 export interface EmailMessage {
@@ -15,7 +16,7 @@ export interface EmailMessage {
 }
 
 /** Queues an e-mail (pass the transaction of the change that causes it); null when its dedupe key was queued before. */
-export async function enqueueEmail(knex: Knex | Knex.Transaction, message: EmailMessage): Promise<string | null> {
+export async function enqueueEmail(knex: Db, message: EmailMessage): Promise<string | null> {
   const rows = await knex('outbox_emails')
     .insert({
       kind: message.kind,
@@ -35,16 +36,15 @@ export async function enqueueEmail(knex: Knex | Knex.Transaction, message: Email
 
 // 15 s, 30 s, 1 min … capped at one hour: a mail server that is down for a
 // while gets tried again soon after it is back, without a storm of attempts.
-const FIRST_RETRY_MS = Number(process.env.KINLOOP_OUTBOX_RETRY_MS ?? 15_000);
 export function retryDelayMs(attempts: number): number {
-  return Math.min(FIRST_RETRY_MS * 2 ** Math.max(0, attempts - 1), 3_600_000);
+  return Math.min(config().outboxRetryMs * 2 ** Math.max(0, attempts - 1), 3_600_000);
 }
 
 /**
  * Sends what is due. Each row is claimed with SKIP LOCKED inside its own
  * transaction and marked sent in it, so two workers never send the same mail.
  */
-export async function deliverDueEmails(knex: Knex, limit = 20): Promise<{ sent: number; failed: number }> {
+export async function deliverDueEmails(knex: Db, limit = 20): Promise<{ sent: number; failed: number }> {
   let sent = 0;
   let failed = 0;
   for (let i = 0; i < limit; i++) {

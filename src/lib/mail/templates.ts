@@ -1,4 +1,6 @@
 import type { InvitationRole } from '../db/tables';
+import { FOOTER_LINE } from '../checks/safety-text';
+import { FALLBACK_LOCALE, formatDateTime } from '../time/format';
 import { renderEmail } from './render';
 
 /** A role as it reads after "as": "invited … as a therapist". */
@@ -9,7 +11,6 @@ export const AS_ROLE: Record<InvitationRole, string> = {
   carer: 'a carer',
 };
 
-const FOOTER = 'Kinloop supports home FES cycling programs. It is not a real-time monitor and does not replace your clinic’s advice.';
 
 export function invitationEmail(p: {
   inviteeName: string | null;
@@ -21,6 +22,8 @@ export function invitationEmail(p: {
   expiresAt: Date;
   /** The clinic's zone: the expiry is said in the invitee's likely local time, with the zone named. */
   timeZone: string;
+  /** The clinic's locale (src/lib/time/locale.ts). */
+  locale?: string;
 }) {
   const what =
     p.role === 'client'
@@ -32,17 +35,16 @@ export function invitationEmail(p: {
     greeting: p.inviteeName ? `Hello ${p.inviteeName},` : 'Hello,',
     paragraphs: [
       `${p.inviterName} at ${p.clinicName} has invited you ${what}.`,
-      `Open the link below to choose your password. The link works once and until ${expiryLabel(p.expiresAt, p.timeZone)}.`,
+      `Open the link below to choose your password. The link works once and until ${expiryLabel(p.expiresAt, p.timeZone, p.locale ?? FALLBACK_LOCALE)}.`,
       'If you did not expect this e-mail, you can ignore it.',
     ],
     action: { label: 'Accept the invitation', url: p.url },
-    footer: [FOOTER],
+    footer: [FOOTER_LINE],
   });
   return { subject: `${p.clinicName} invites you to Kinloop`, ...body };
 }
 
-const expiryLabel = (at: Date, timeZone: string) =>
-  new Intl.DateTimeFormat('en-GB', { timeZone, dateStyle: 'full', timeStyle: 'short' }).format(at) + ` (${timeZone} time)`;
+const expiryLabel = (at: Date, timeZone: string, locale: string) => `${formatDateTime(at, locale, timeZone, 'dayLong')} (${timeZone} time)`;
 
 export function passwordResetEmail(p: { name: string; url: string; expiresMinutes: number }) {
   const body = renderEmail({
@@ -52,7 +54,7 @@ export function passwordResetEmail(p: { name: string; url: string; expiresMinute
       `The link works once, for ${p.expiresMinutes} minutes. If you did not ask for this, ignore this e-mail: your password stays as it is.`,
     ],
     action: { label: 'Choose a new password', url: p.url },
-    footer: [FOOTER],
+    footer: [FOOTER_LINE],
   });
   return { subject: 'Reset your Kinloop password', ...body };
 }

@@ -1,13 +1,12 @@
 // Minutes staff spend monitoring a client (reviewing data, calls, messages,
 // reports), by a timer on the client page or by hand, and the monthly totals
 // per therapist and per client beside the days with data.
-import type { Knex } from 'knex';
 import { z } from 'zod';
-import { accessClient, staffClinic } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope, type Db } from '../data';
 import type { ClientRow, MonitoringEntryRow } from '../db/tables';
 import { badRequest } from '../http/errors';
-import { localDate } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { instant, paragraph } from '../validation/fields';
 import { toCsv } from '../exports/csv';
 import { dataPeriods, isMonth, monthOf, monthRange, MONITORING_ACTIVITIES, periodsWithin, totalsOf, type DataPeriod } from './periods';
@@ -42,25 +41,25 @@ function entryView(row: MonitoringEntryRow & { staff_name?: string; client_name?
   };
 }
 
-async function clinicZone(knex: Knex, clinicId: string): Promise<string> {
-  return (await knex('clinics').where({ id: clinicId }).first('time_zone')).time_zone;
+async function clinicZone(db: Db, clinicId: string): Promise<string> {
+  return (await db('clinics').where({ id: clinicId }).first('time_zone')).time_zone;
 }
 
 /** Records time spent on a client; the clinic's staff only. */
 export async function recordMonitoring(ctx: RequestContext, clientId: string, input: z.infer<typeof monitoringInputSchema>, now = new Date()) {
-  const client = await accessClient(ctx, clientId, 'manage', 'monitoring.record', { seconds: input.seconds, activity: input.activity, source: input.source });
+  const client = await scope(ctx).client(clientId, 'manage', 'monitoring.record', { seconds: input.seconds, activity: input.activity, source: input.source });
   const started = input.startedAt ? new Date(input.startedAt) : new Date(now.getTime() - input.seconds * 1000);
   if (started.getTime() > now.getTime() + 60_000) throw badRequest('Started: the time cannot be in the future.', { fields: [{ path: 'startedAt', message: 'Choose a time that has passed.' }] });
   if (now.getTime() - started.getTime() > 400 * 86_400_000) throw badRequest('Started: record time within about a year of doing it.', { fields: [{ path: 'startedAt', message: 'Choose a date in the last 400 days.' }] });
-  const [row] = await ctx.knex<MonitoringEntryRow>('monitoring_entries')
-    .insert({ clinic_id: client.clinic_id, client_id: client.id, staff_user_id: ctx.viewer.userId, activity: input.activity as MonitoringEntryRow['activity'], source: input.source, started_at: started, seconds: input.seconds, note: input.note || null })
+  const [row] = await client.db<MonitoringEntryRow>('monitoring_entries')
+    .insert({ staff_user_id: ctx.viewer.userId, activity: input.activity as MonitoringEntryRow['activity'], source: input.source, started_at: started, seconds: input.seconds, note: input.note || null })
     .returning('*');
   return entryView({ ...row, staff_name: ctx.viewer.name });
 }
 
 /** The days (in the client's zone) on which a ride file arrived, for several clients at once. */
-async function dataDays(knex: Knex, clients: ClientRow[]): Promise<Map<string, string[]>> {
-  const rows = clients.length ? await knex('rides').whereIn('client_id', clients.map((c) => c.id)).select('client_id', 'started_at') : [];
+async function dataDays(db: Db, clients: ClientRow[]): Promise<Map<string, string[]>> {
+  const rows = clients.length ? await db('rides').whereIn('client_id', clients.map((c) => c.id)).select('client_id', 'started_at') : [];
   const zone = new Map(clients.map((c) => [c.id, c.time_zone]));
   const out = new Map<string, string[]>();
   for (const r of rows) {
@@ -79,18 +78,18 @@ function periodsOf(client: ClientRow, days: string[], now: Date): DataPeriod[] {
 
 /** One client's entries in a month of the clinic's calendar, their totals and the client's data periods. */
 export async function clientMonitoring(ctx: RequestContext, clientId: string, month: string | undefined, now = new Date()) {
-  const client = await accessClient(ctx, clientId, 'manage', 'monitoring.view', { month });
-  const zone = await clinicZone(ctx.knex, client.clinic_id);
+  const grant = await scope(ctx).client(clientId, 'manage', 'monitoring.view', { month });
+  const client = grant.row;
+  const zone = await clinicZone(grant.db, client.clinic_id);
   const chosen = month ?? monthOf(now, zone);
   const range = monthRange(chosen, zone);
-  const rows = await ctx.knex('monitoring_entries as m')
+  const rows = await grant.db('monitoring_entries as m')
     .join('users as u', 'u.id', 'm.staff_user_id')
-    .where('m.client_id', client.id)
     .where('m.started_at', '>=', range.start)
     .where('m.started_at', '<', range.end)
     .orderBy('m.started_at', 'desc')
     .select('m.*', 'u.name as staff_name');
-  const days = (await dataDays(ctx.knex, [client])).get(client.id) ?? [];
+  const days = (await dataDays(grant.db, [client])).get(client.id) ?? [];
   return {
     month: chosen,
     timeZone: zone,
@@ -102,19 +101,19 @@ export async function clientMonitoring(ctx: RequestContext, clientId: string, mo
 
 /** The clinic's month: totals per therapist and per client, with each client's data periods that touch the month. */
 export async function monitoringSummary(ctx: RequestContext, query: { month?: string; clinicId?: string }, now = new Date()) {
-  const clinicId = staffClinic(ctx.viewer, ['admin', 'therapist'], query.clinicId);
-  const zone = await clinicZone(ctx.knex, clinicId);
+  const clinic = scope(ctx).clinic(['admin', 'therapist'], query.clinicId);
+  const clinicId = clinic.id;
+  const zone = await clinicZone(clinic.db, clinicId);
   const month = query.month ?? monthOf(now, zone);
   const range = monthRange(month, zone);
-  const rows: (MonitoringEntryRow & { staff_name: string })[] = await ctx.knex('monitoring_entries as m')
+  const rows: (MonitoringEntryRow & { staff_name: string })[] = await clinic.db('monitoring_entries as m')
     .join('users as u', 'u.id', 'm.staff_user_id')
-    .where('m.clinic_id', clinicId)
     .where('m.started_at', '>=', range.start)
     .where('m.started_at', '<', range.end)
     .select('m.*', 'u.name as staff_name');
-  const clients: ClientRow[] = await ctx.knex<ClientRow>('clients').where({ clinic_id: clinicId }).whereNull('archived_at').orderBy('display_name');
-  const days = await dataDays(ctx.knex, clients);
-  await auditAs(ctx, { action: 'monitoring.summary', clinicId, detail: { month, entries: rows.length } });
+  const clients: ClientRow[] = await clinic.db<ClientRow>('clients').orderBy('display_name');
+  const days = await dataDays(clinic.db, clients);
+  await clinic.audit({ action: 'monitoring.summary', detail: { month, entries: rows.length } });
 
   const staffIds = [...new Set(rows.map((r) => r.staff_user_id))];
   const therapists = staffIds

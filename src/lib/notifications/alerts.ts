@@ -1,4 +1,4 @@
-import type { Knex } from 'knex';
+import type { Db, Query } from '../data/db';
 import { config } from '../config';
 import type { ClientRow, FlagRow } from '../db/tables';
 import { enqueueEmail } from '../mail/outbox';
@@ -12,7 +12,7 @@ import { therapistsOf } from './recipients';
  * condition has already cleared (files that came in late) is history for the
  * triage list, not an alert.
  */
-export async function alertUrgentFlag(knex: Knex, flag: FlagRow): Promise<number> {
+export async function alertUrgentFlag(knex: Db, flag: FlagRow): Promise<number> {
   if (flag.severity !== 'urgent' || flag.state !== 'open' || flag.cleared_at !== null) return 0;
   const client = await knex<ClientRow>('clients').where({ id: flag.client_id }).first();
   if (!client) return 0;

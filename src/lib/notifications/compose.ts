@@ -1,6 +1,7 @@
 // Kinloop's notification e-mails, plain text and HTML from one description.
 // Each says why it came and carries an unsubscribe link that works without
 // signing in. No clinical detail goes beyond what the recipient may see.
+import { SHORT_CAUTION } from '../checks/safety-text';
 import { config } from '../config';
 import { renderEmail, type EmailContent } from '../mail/render';
 import type { EmailMessage } from '../mail/outbox';
@@ -13,7 +14,6 @@ export interface Recipient {
   unsubscribeToken: string;
 }
 
-const CAUTION = 'Kinloop is not a real-time monitor and does not diagnose. If symptoms of autonomic dysreflexia appear, stop the ride and follow the rider’s plan; call emergency services if they do not settle.';
 
 export function notificationEmail(
   to: Recipient,
@@ -26,7 +26,7 @@ export function notificationEmail(
     paragraphs: p.paragraphs,
     action: p.action,
     footer: [
-      ...(p.caution ? [CAUTION] : []),
+      ...(p.caution ? SHORT_CAUTION : []),
       `You get this e-mail because ${TOPIC_WORDS[topic]} are on for your Kinloop account. Stop them: ${unsubscribe} — or choose which e-mails you get: ${config().publicUrl}/settings/notifications`,
     ],
   });

@@ -1,5 +1,5 @@
 import { randomBytes } from 'node:crypto';
-import type { Knex } from 'knex';
+import { scope, type Db } from '../data';
 import { z } from 'zod';
 import type { RequestContext } from '../auth/context';
 import type { NotificationPreferencesRow } from '../db/tables';
@@ -17,7 +17,7 @@ export const TOPIC_WORDS: Record<Topic, string> = {
 export const preferencesInputSchema = z.object({ reminders: z.boolean(), weeklySummary: z.boolean(), dailyDigest: z.boolean(), urgentAlerts: z.boolean() }).strict();
 
 /** A user's e-mail choices; the row (and its unsubscribe token) is made on first use, everything on. */
-export async function preferencesOf(knex: Knex | Knex.Transaction, userId: string): Promise<NotificationPreferencesRow> {
+export async function preferencesOf(knex: Db, userId: string): Promise<NotificationPreferencesRow> {
   const existing = await knex<NotificationPreferencesRow>('notification_preferences').where({ user_id: userId }).first();
   if (existing) return existing;
   await knex('notification_preferences').insert({ user_id: userId, unsubscribe_token: randomBytes(24).toString('base64url') }).onConflict('user_id').ignore();
@@ -41,14 +41,15 @@ function view(p: NotificationPreferencesRow, ctx: RequestContext) {
 }
 
 export async function readPreferences(ctx: RequestContext) {
-  return view(await preferencesOf(ctx.knex, ctx.viewer.userId), ctx);
+  return view(await preferencesOf(scope(ctx).own().db, ctx.viewer.userId), ctx);
 }
 
 export async function savePreferences(ctx: RequestContext, input: z.infer<typeof preferencesInputSchema>) {
-  await preferencesOf(ctx.knex, ctx.viewer.userId);
-  const [row] = await ctx.knex<NotificationPreferencesRow>('notification_preferences')
+  const own = scope(ctx).own().db;
+  await preferencesOf(own, ctx.viewer.userId);
+  const [row] = await own<NotificationPreferencesRow>('notification_preferences')
     .where({ user_id: ctx.viewer.userId })
-    .update({ reminders: input.reminders, weekly_summary: input.weeklySummary, daily_digest: input.dailyDigest, urgent_alerts: input.urgentAlerts, updated_at: ctx.knex.fn.now() as never })
+    .update({ reminders: input.reminders, weekly_summary: input.weeklySummary, daily_digest: input.dailyDigest, urgent_alerts: input.urgentAlerts, updated_at: own.fn.now() as never })
     .returning('*');
   return view(row, ctx);
 }
@@ -57,7 +58,7 @@ export async function savePreferences(ctx: RequestContext, input: z.infer<typeof
 const TOKEN = /^[A-Za-z0-9_-]{16,64}$/;
 
 /** The unsubscribe link's action: works without signing in, with the token from the e-mail. */
-export async function unsubscribe(knex: Knex, token: string, topic: Topic): Promise<{ email: string } | null> {
+export async function unsubscribe(knex: Db, token: string, topic: Topic): Promise<{ email: string } | null> {
   if (!TOKEN.test(token)) return null;
   const row = await knex('notification_preferences as p').join('users as u', 'u.id', 'p.user_id').where('p.unsubscribe_token', token).first('p.user_id', 'u.email');
   if (!row) return null;
@@ -66,7 +67,7 @@ export async function unsubscribe(knex: Knex, token: string, topic: Topic): Prom
   return { email: row.email };
 }
 
-export async function tokenOwner(knex: Knex, token: string) {
+export async function tokenOwner(knex: Db, token: string) {
   if (!TOKEN.test(token)) return undefined;
   return knex('notification_preferences as p').join('users as u', 'u.id', 'p.user_id').where('p.unsubscribe_token', token).first('u.email', 'p.*');
 }

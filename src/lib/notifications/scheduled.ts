@@ -3,7 +3,7 @@
 // 18:00 in the client's time zone, when none has arrived that day) and the
 // rider's weekly summary (Monday from 08:00). The job runs every hour; dedupe
 // keys make each go out once per day or week even when a run is missed or repeated.
-import type { Knex } from 'knex';
+import type { Db, Query } from '../data/db';
 import { DateTime } from 'luxon';
 import { prescriptionTimeline } from '../adherence';
 import { config } from '../config';
@@ -13,10 +13,15 @@ import { nextSessionDue } from '../rider/next-session';
 import { reminderDue } from '../rider/reminder';
 import { readGoalFor } from '../riders/goal-progress';
 import { readClients } from '../supervision/adherence-store';
-import { isoWeekOf, localDate } from '../time/iso-week';
+import { isoWeekOf } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { notificationEmail, type Recipient } from './compose';
 import { recipientCache, riderAndCarers, riderOnly, therapistsOf, type RecipientCache } from './recipients';
 import { FLAG_KIND_WORDS } from '../flags/words';
+import { flagReason } from '../flags/reason';
+import { count, distance } from '../format/numbers';
+import { FALLBACK_LOCALE, formatDate, weekOf } from '../time/format';
+import { clinicLocale } from '../time/locale';
 
 export const DIGEST_HOUR = 7;
 export const REMINDER_HOUR = 18;
@@ -33,12 +38,12 @@ const PAGE = 200;
  * says how many of each it queued (not counting those queued before).
  */
 export async function sendScheduledEmails(
-  knex: Knex,
+  knex: Db,
   now = new Date(),
   only: { clinicIds?: string[] } = {},
 ): Promise<{ digests: number; reminders: number; weekly: number }> {
   const cache = recipientCache();
-  const clinicZones = new Map((await knex('clinics').select('id', 'time_zone')).map((c) => [c.id as string, c.time_zone as string]));
+  const clinics: Clinics = new Map((await knex('clinics').select('id', 'time_zone', 'locale')).map((c) => [c.id as string, c as ClinicZone]));
   const lines: DigestLines = new Map();
   let reminders = 0;
   let weekly = 0;
@@ -54,9 +59,9 @@ export async function sendScheduledEmails(
       .limit(PAGE);
     if (!clients.length) break;
     after = clients[clients.length - 1].id;
-    await digestLines(knex, clients, now, clinicZones, lines, cache);
+    await digestLines(knex, clients, now, clinics, lines, cache);
     reminders += await remindersFor(knex, clients, now, cache);
-    weekly += await weeklySummaries(knex, clients, now, cache);
+    weekly += await weeklySummaries(knex, clients, now, clinics, cache);
   }
   return { digests: await sendDigests(knex, lines), reminders, weekly };
 }
@@ -71,30 +76,35 @@ function wallClocks(now: Date) {
   };
 }
 
-type DigestLines = Map<string, { to: Recipient; date: string; lines: { fresh: boolean; text: string }[] }>;
+type ClinicZone = { time_zone: string; locale: string | null };
+type Clinics = Map<string, ClinicZone>;
 
-async function digestLines(knex: Knex, clients: ClientRow[], now: Date, clinicZones: Map<string, string>, byRecipient: DigestLines, cache: RecipientCache): Promise<void> {
+type DigestLines = Map<string, { to: Recipient; date: string; locale: string; lines: { fresh: boolean; text: string }[] }>;
+
+async function digestLines(knex: Db, clients: ClientRow[], now: Date, clinics: Clinics, byRecipient: DigestLines, cache: RecipientCache): Promise<void> {
   const flags = await knex<FlagRow>('flags').whereIn('client_id', clients.map((c) => c.id)).whereIn('state', ['open', 'acknowledged']).orderBy('raised_at');
   const clock = wallClocks(now);
   for (const client of clients) {
     const own = flags.filter((f) => f.client_id === client.id);
     if (!own.length) continue;
-    const local = clock(clinicZones.get(client.clinic_id) ?? 'UTC');
+    const clinic = clinics.get(client.clinic_id);
+    const local = clock(clinic?.time_zone ?? 'UTC');
     if (local.hour < DIGEST_HOUR) continue;
+    const locale = clinic ? clinicLocale(clinic) : FALLBACK_LOCALE;
     for (const to of await therapistsOf(knex, client, 'daily_digest', cache)) {
-      const entry = byRecipient.get(to.userId) ?? { to, date: local.toISODate()!, lines: [] };
+      const entry = byRecipient.get(to.userId) ?? { to, date: local.toISODate()!, locale, lines: [] };
       for (const f of own) {
         const fresh = now.getTime() - f.raised_at.getTime() < 86_400_000;
-        entry.lines.push({ fresh, text: `${client.display_name} — ${FLAG_KIND_WORDS[f.kind]} (${f.severity}${f.state === 'acknowledged' ? ', acknowledged' : ''}): ${f.reason}` });
+        entry.lines.push({ fresh, text: `${client.display_name} — ${FLAG_KIND_WORDS[f.kind]} (${f.severity}${f.state === 'acknowledged' ? ', acknowledged' : ''}): ${flagReason(f, locale)}` });
       }
       byRecipient.set(to.userId, entry);
     }
   }
 }
 
-async function sendDigests(knex: Knex, byRecipient: DigestLines): Promise<number> {
+async function sendDigests(knex: Db, byRecipient: DigestLines): Promise<number> {
   let n = 0;
-  for (const { to, date, lines } of byRecipient.values()) {
+  for (const { to, date, locale, lines } of byRecipient.values()) {
     const fresh = lines.filter((l) => l.fresh).map((l) => `New: ${l.text}`);
     const open = lines.filter((l) => !l.fresh).map((l) => `Still open: ${l.text}`);
     const id = await enqueueEmail(
@@ -102,7 +112,7 @@ async function sendDigests(knex: Knex, byRecipient: DigestLines): Promise<number
       notificationEmail(to, 'daily_digest', {
         kind: 'daily_digest',
         subject: `Kinloop: ${fresh.length} new and ${open.length} open flag${fresh.length + open.length === 1 ? '' : 's'} today`,
-        paragraphs: [`Here are the flags for your clients on ${date}.`, ...fresh, ...open],
+        paragraphs: [`Here are the flags for your clients on ${formatDate(date, locale, 'dayLong')}.`, ...fresh, ...open],
         action: { label: 'Open triage', url: `${config().publicUrl}/triage` },
         dedupeKey: `digest:${to.userId}:${date}`,
         caution: true,
@@ -114,7 +124,7 @@ async function sendDigests(knex: Knex, byRecipient: DigestLines): Promise<number
 }
 
 /** The sessions of the clients since `from`, each with its local date, oldest first. */
-async function sessionsSince(knex: Knex, clients: ClientRow[], from: Date) {
+async function sessionsSince(knex: Db, clients: ClientRow[], from: Date) {
   const zone = new Map(clients.map((c) => [c.id, c.time_zone]));
   const rows: Pick<RideRow, 'client_id' | 'started_at' | 'active_s' | 'distance_m'>[] = clients.length
     ? await knex<RideRow>('rides').whereIn('client_id', [...zone.keys()]).where('started_at', '>=', from).orderBy('started_at').select('client_id', 'started_at', 'active_s', 'distance_m')
@@ -131,7 +141,7 @@ async function sessionsSince(knex: Knex, clients: ClientRow[], from: Date) {
 // A local day is at most 26 hours after the instant it began, in any zone: two days back holds all of today.
 const TWO_DAYS_MS = 2 * 86_400_000;
 
-async function remindersFor(knex: Knex, clients: ClientRow[], now: Date, cache: RecipientCache): Promise<number> {
+async function remindersFor(knex: Db, clients: ClientRow[], now: Date, cache: RecipientCache): Promise<number> {
   let n = 0;
   const clock = wallClocks(now);
   const due = clients.filter((c) => clock(c.time_zone).hour >= REMINDER_HOUR);
@@ -152,7 +162,7 @@ async function remindersFor(knex: Knex, clients: ClientRow[], now: Date, cache: 
       pauses: r.pauses.map((p) => ({ start: p.from, end: p.to })),
     });
     const sessionsToday = (recent.get(client.id) ?? []).filter((s) => s.localDate === today).length;
-    if (!reminderDue({ timeZone: client.time_zone, now, eveningHour: REMINDER_HOUR, nextDue: next.dueLocalDate, lastReminderSentAt: null, sessionsToday })) continue;
+    if (!reminderDue({ timeZone: client.time_zone, now, eveningHour: REMINDER_HOUR, nextDue: next.dueLocalDate, sessionsToday })) continue;
     for (const to of await riderAndCarers(knex, client, 'reminders', cache)) {
       const self = to.userId === client.user_id;
       const id = await enqueueEmail(
@@ -177,7 +187,7 @@ async function remindersFor(knex: Knex, clients: ClientRow[], now: Date, cache: 
 // Last week's Monday is at most 15 days before now, in any zone.
 const FIFTEEN_DAYS_MS = 15 * 86_400_000;
 
-async function weeklySummaries(knex: Knex, clients: ClientRow[], now: Date, cache: RecipientCache): Promise<number> {
+async function weeklySummaries(knex: Db, clients: ClientRow[], now: Date, clinics: Clinics, cache: RecipientCache): Promise<number> {
   let n = 0;
   const clock = wallClocks(now);
   const due = clients.filter((c) => c.user_id && clock(c.time_zone).weekday === 1 && clock(c.time_zone).hour >= WEEKLY_HOUR);
@@ -189,12 +199,15 @@ async function weeklySummaries(knex: Knex, clients: ClientRow[], now: Date, cach
     const recipients = await riderOnly(knex, client, 'weekly_summary', cache);
     if (!recipients.length) continue;
     const adherence = read.get(client.id)!.adherence;
-    const week = adherence.weeks[0];
+    const thisWeek = adherence.weeks[0];
     const lastWeek = isoWeekOf(local.minus({ weeks: 1 }).toISODate()!, client.time_zone);
     const rides = (recent.get(client.id) ?? []).filter((s) => s.localDate >= lastWeek.monday && s.localDate <= lastWeek.sunday);
-    const km = rides.reduce((sum, r) => sum + (r.distanceM ?? 0), 0) / 1000;
+    const metres = rides.reduce((sum, r) => sum + (r.distanceM ?? 0), 0);
     const minutes = Math.round(rides.reduce((sum, r) => sum + r.activeS, 0) / 60);
-    const goal = await goalLine(knex, client);
+    const clinic = clinics.get(client.clinic_id);
+    const locale = clinic ? clinicLocale(clinic) : FALLBACK_LOCALE;
+    const week = weekOf(lastWeek.monday, locale);
+    const goal = await goalLine(knex, client, locale);
     for (const to of recipients) {
       const id = await enqueueEmail(
         knex,
@@ -202,9 +215,9 @@ async function weeklySummaries(knex: Knex, clients: ClientRow[], now: Date, cach
           kind: 'weekly_summary',
           subject: `Your riding last week: ${rides.length} session${rides.length === 1 ? '' : 's'}`,
           paragraphs: [
-            week.paused
-              ? `Last week (${lastWeek.isoWeek}) your program was paused.`
-              : `Last week (${lastWeek.isoWeek}) you rode ${rides.length} time${rides.length === 1 ? '' : 's'}${week.prescribed ? ` of the ${week.prescribed} planned` : ''}: ${minutes} active minutes and ${km.toFixed(1)} km.`,
+            thisWeek.paused
+              ? `Last week (${week}) your program was paused.`
+              : `Last week (${week}) you did ${count(rides.length, 'session')}${thisWeek.prescribed ? ` of the ${thisWeek.prescribed} planned` : ''}: ${minutes} active minutes and ${distance(metres, locale)}.`,
             `Your streak: ${adherence.streakWeeks} week${adherence.streakWeeks === 1 ? '' : 's'}.`,
             ...(goal ? [goal] : []),
           ],
@@ -218,10 +231,10 @@ async function weeklySummaries(knex: Knex, clients: ClientRow[], now: Date, cach
   return n;
 }
 
-async function goalLine(knex: Knex, client: ClientRow): Promise<string | null> {
+async function goalLine(knex: Db, client: ClientRow, locale: string): Promise<string | null> {
   const g = await readGoalFor(knex, client);
   if (!g) return null;
   return g.progress.finished
     ? `You have reached the end of ${g.route.name}. Well done!`
-    : `Distance goal, ${g.route.name}: ${(g.progress.travelledM / 1000).toFixed(1)} of ${(g.progress.totalM / 1000).toFixed(0)} km${g.progress.next ? `; next: ${g.progress.next.name} in ${(g.progress.next.remainingM / 1000).toFixed(1)} km` : ''}.`;
+    : `Distance goal, ${g.route.name}: ${distance(g.progress.travelledM, locale)} of ${distance(g.progress.totalM, locale)}${g.progress.next ? `; next: ${g.progress.next.name} in ${distance(g.progress.next.remainingM, locale)}` : ''}.`;
 }

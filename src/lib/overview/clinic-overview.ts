@@ -1,26 +1,26 @@
 // The clinic overview for its staff: one read of the clinic's clients, their
 // histories and open flags, one audit entry, and the figures of figures.ts.
-import { staffClinic } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
 import type { ClientRow, FlagRow } from '../db/tables';
 import { toCsv } from '../exports/csv';
 import { FLAG_KIND_WORDS } from '../flags/words';
-import { roundTo } from '../rides/metrics';
+import { roundTo } from '../analytics/round';
 import { loadHistories } from '../supervision/history';
 import { overviewOf } from '../supervision/overview';
-import { localDate } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { clinicOverviewFigures, OVERVIEW_WEEKS } from './figures';
 
 export async function clinicOverview(ctx: RequestContext, clinicId?: string, now = new Date()) {
-  const id = staffClinic(ctx.viewer, ['admin', 'therapist'], clinicId);
-  const clinic = await ctx.knex('clinics').where({ id }).first('id', 'name', 'time_zone');
-  const rows: ClientRow[] = await ctx.knex<ClientRow>('clients').where({ clinic_id: id }).whereNull('archived_at').orderBy('display_name');
-  const histories = await loadHistories(ctx.knex, rows);
+  const grant = scope(ctx).clinic(['admin', 'therapist'], clinicId);
+  const clinic = await grant.clinic();
+  const rows: ClientRow[] = await grant.db<ClientRow>('clients').orderBy('display_name');
+  const histories = await loadHistories(grant.db, rows);
   // Open and not snoozed: what triage shows.
-  const flags: FlagRow[] = await ctx.knex<FlagRow>('flags')
-    .where({ clinic_id: id, state: 'open' })
-    .where((q) => q.whereNull('snoozed_until').orWhere('snoozed_until', '<', ctx.knex.raw('current_date')));
-  await auditAs(ctx, { action: 'clinic.overview', clinicId: id, detail: { clients: rows.length } });
+  const flags: FlagRow[] = await grant.db<FlagRow>('flags')
+    .where({ state: 'open' })
+    .where((q) => q.whereNull('snoozed_until').orWhereRaw('?? < current_date', ['snoozed_until']));
+  await grant.audit({ action: 'clinic.overview', detail: { clients: rows.length } });
   const inputs = histories.map((h) => ({
     id: h.client.id,
     name: h.client.display_name,

@@ -7,8 +7,8 @@ import type { Pause, PrescriptionVersion } from '../adherence/types';
 import { FLAG_KINDS, type FlagKind } from '../flags/types';
 import { FLAG_KIND_WORDS } from '../flags/words';
 import { comparedCount, weightedPower } from '../reports/figures';
-import { isoWeekOf, localDate, weeksEndingAt } from '../time/iso-week';
-import { parseLocalDate } from '../time/local-date';
+import { isoWeekOf, weeksEndingAt } from '../time/iso-week';
+import { daysFrom, localDate } from '../time/local-date';
 
 export interface OverviewClientInput {
   id: string;
@@ -39,7 +39,6 @@ export interface ClientGroup {
   clientIds: string[];
 }
 
-const daysBetween = (from: string, to: string) => parseLocalDate(to).diff(parseLocalDate(from), 'days').days;
 
 export function clinicOverviewFigures(clients: OverviewClientInput[], now: Date, clinicZone: string) {
   const todayOf = (c: OverviewClientInput) => localDate(now, c.timeZone);
@@ -92,7 +91,7 @@ export function clinicOverviewFigures(clients: OverviewClientInput[], now: Date,
       sessionsInWeeks: c.sessions.filter((s) => byWeek.has(isoWeekOf(s.startedAt, c.timeZone).isoWeek)).length,
       power: powerOf.get(c.id) ?? null,
       lastSessionAt: last?.startedAt ?? null,
-      daysSinceLastSession: last ? daysBetween(localDate(last.startedAt, c.timeZone), todayOf(c)) : null,
+      daysSinceLastSession: last ? daysFrom(localDate(last.startedAt, c.timeZone), todayOf(c)) : null,
     };
   });
   const quiet = perClient.filter((c) => c.active && (c.daysSinceLastSession === null || c.daysSinceLastSession > QUIET_DAYS));

@@ -1,5 +1,5 @@
-import { staffClinic } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
 import type { DeviceRow, ImportProfileRow } from '../db/tables';
 import { badRequest, notFound } from '../http/errors';
 import { parseRide } from '../rides/parse';
@@ -34,47 +34,45 @@ function mappingOf(input: Pick<ProfileInput, 'columns' | 'metresPerRev' | 'timeF
 
 /** Profiles of every clinic the caller works with or belongs to through a client, for choosing one at upload. */
 export async function listProfiles(ctx: RequestContext) {
-  const clinics = new Set(ctx.viewer.memberships.map((m) => m.clinicId));
-  const linked = [...ctx.viewer.carerOf, ...(ctx.viewer.clientId ? [ctx.viewer.clientId] : [])];
-  if (linked.length) for (const c of await ctx.knex('clients').whereIn('id', linked).select('clinic_id')) clinics.add(c.clinic_id);
-  const rows = await ctx.knex<ImportProfileRow>('import_profiles').whereIn('clinic_id', [...clinics]).whereNull('archived_at').orderBy('name');
+  const rows: ImportProfileRow[] = await scope(ctx).profiles().whereNull('archived_at').orderBy('name');
   return rows.map(profileView);
 }
 
 export async function createProfile(ctx: RequestContext, input: ProfileInput) {
-  const clinicId = staffClinic(ctx.viewer, ['admin'], input.clinicId);
-  const [row] = await ctx.knex<ImportProfileRow>('import_profiles')
-    .insert({ clinic_id: clinicId, name: input.name, device_name: input.deviceName ?? null, mapping: JSON.stringify(mappingOf(input)) as unknown as ImportProfile, created_by: ctx.viewer.userId })
+  const clinic = scope(ctx).clinic(['admin'], input.clinicId);
+  const [row] = await clinic.db<ImportProfileRow>('import_profiles')
+    .insert({ name: input.name, device_name: input.deviceName ?? null, mapping: JSON.stringify(mappingOf(input)) as unknown as ImportProfile, created_by: ctx.viewer.userId })
     .returning('*');
-  await auditAs(ctx, { action: 'import_profile.create', clinicId, recordType: 'import_profile', recordId: row.id });
+  await clinic.audit({ action: 'import_profile.create', recordType: 'import_profile', recordId: row.id });
   return profileView(row);
 }
 
+/** A profile of a clinic where the caller is staff (else 404), for its admins (else 403). */
 async function ownProfile(ctx: RequestContext, id: string) {
-  const row = /^[0-9a-f-]{36}$/i.test(id) ? await ctx.knex<ImportProfileRow>('import_profiles').where({ id }).whereNull('archived_at').first() : undefined;
+  const s = scope(ctx);
+  const row: ImportProfileRow | undefined = /^[0-9a-f-]{36}$/i.test(id) ? await s.profiles().where({ id }).whereNull('archived_at').first() : undefined;
   if (!row || !ctx.viewer.memberships.some((m) => m.clinicId === row.clinic_id)) throw notFound('That import profile');
-  staffClinic(ctx.viewer, ['admin'], row.clinic_id);
-  return row;
+  return { row, clinic: s.clinic(['admin'], row.clinic_id) };
 }
 
 export async function updateProfile(ctx: RequestContext, id: string, input: ProfileInput) {
-  const row = await ownProfile(ctx, id);
-  const [updated] = await ctx.knex<ImportProfileRow>('import_profiles')
+  const { row, clinic } = await ownProfile(ctx, id);
+  const [updated] = await clinic.db<ImportProfileRow>('import_profiles')
     .where({ id: row.id })
-    .update({ name: input.name, device_name: input.deviceName ?? null, mapping: JSON.stringify(mappingOf(input)) as unknown as ImportProfile, updated_at: ctx.knex.fn.now() as unknown as Date })
+    .update({ name: input.name, device_name: input.deviceName ?? null, mapping: JSON.stringify(mappingOf(input)) as unknown as ImportProfile, updated_at: clinic.db.fn.now() as unknown as Date })
     .returning('*');
-  await auditAs(ctx, { action: 'import_profile.update', clinicId: row.clinic_id, recordType: 'import_profile', recordId: id });
+  await clinic.audit({ action: 'import_profile.update', recordType: 'import_profile', recordId: id });
   return profileView(updated);
 }
 
 /** Archived, not deleted: uploads that used it still say which mapping read them. */
 export async function archiveProfile(ctx: RequestContext, id: string) {
-  const row = await ownProfile(ctx, id);
-  await ctx.knex.transaction(async (trx) => {
-    await trx('import_profiles').where({ id: row.id }).update({ archived_at: trx.fn.now() });
-    await trx('devices').where({ import_profile_id: row.id }).update({ import_profile_id: null });
+  const { row, clinic } = await ownProfile(ctx, id);
+  await clinic.transaction(async (tx) => {
+    await tx.db('import_profiles').where({ id: row.id }).update({ archived_at: tx.db.fn.now() });
+    await tx.db('devices').where({ import_profile_id: row.id }).update({ import_profile_id: null });
   });
-  await auditAs(ctx, { action: 'import_profile.archive', clinicId: row.clinic_id, recordType: 'import_profile', recordId: id });
+  await clinic.audit({ action: 'import_profile.archive', recordType: 'import_profile', recordId: id });
 }
 
 /** How the first rows of a sample file would be read, with or without a draft profile. */
@@ -116,23 +114,22 @@ export function deviceView(row: DeviceRow) {
 }
 
 export async function listDevices(ctx: RequestContext) {
-  const clinics = ctx.viewer.memberships.map((m) => m.clinicId);
-  const rows = await ctx.knex<DeviceRow>('devices').whereIn('clinic_id', clinics).orderBy('serial');
+  const rows: DeviceRow[] = await scope(ctx).devices().orderBy('serial');
   return rows.map(deviceView);
 }
 
 /** Registers a device serial (or updates it), optionally attaching the profile its files are read with. */
 export async function saveDevice(ctx: RequestContext, input: z.infer<typeof deviceInputSchema>) {
-  const clinicId = staffClinic(ctx.viewer, ['admin'], input.clinicId);
+  const clinic = scope(ctx).clinic(['admin'], input.clinicId);
   if (input.importProfileId) {
-    const p = await ctx.knex('import_profiles').where({ id: input.importProfileId, clinic_id: clinicId }).whereNull('archived_at').first('id');
+    const p = await clinic.db('import_profiles').where({ id: input.importProfileId }).whereNull('archived_at').first('id');
     if (!p) throw badRequest('That import profile does not exist in this clinic.', { fields: [{ path: 'importProfileId', message: 'Choose one of the clinic’s profiles.' }] });
   }
-  const [row] = await ctx.knex<DeviceRow>('devices')
-    .insert({ clinic_id: clinicId, serial: input.serial, name: input.name ?? null, import_profile_id: input.importProfileId ?? null })
+  const [row] = await clinic.db<DeviceRow>('devices')
+    .insert({ serial: input.serial, name: input.name ?? null, import_profile_id: input.importProfileId ?? null })
     .onConflict(['clinic_id', 'serial'])
     .merge(['name', 'import_profile_id'])
     .returning('*');
-  await auditAs(ctx, { action: 'device.save', clinicId, recordType: 'device', recordId: row.id });
+  await clinic.audit({ action: 'device.save', recordType: 'device', recordId: row.id });
   return deviceView(row);
 }

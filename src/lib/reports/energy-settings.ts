@@ -2,8 +2,8 @@
 // from the flag thresholds, since it changes what reports and exports say and
 // nothing about flags.
 import { z } from 'zod';
-import { staffClinic } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
 import { DEFAULT_FES_EFFICIENCY_PCT, FES_EFFICIENCY_RANGE_PCT } from './energy';
 
 const { min, max } = FES_EFFICIENCY_RANGE_PCT;
@@ -24,10 +24,10 @@ export function clinicEfficiencyPct(stored: string | number | null | undefined):
 }
 
 export async function readEnergySettings(ctx: RequestContext, clinicId?: string) {
-  const id = staffClinic(ctx.viewer, ['admin', 'therapist'], clinicId);
-  const clinic = await ctx.knex('clinics').where({ id }).first('fes_efficiency_pct');
+  const grant = scope(ctx).clinic(['admin', 'therapist'], clinicId);
+  const clinic = await grant.clinic();
   return {
-    clinicId: id,
+    clinicId: grant.id,
     efficiencyPct: clinicEfficiencyPct(clinic.fes_efficiency_pct),
     isDefault: clinic.fes_efficiency_pct === null,
     defaultPct: DEFAULT_FES_EFFICIENCY_PCT,
@@ -37,8 +37,8 @@ export async function readEnergySettings(ctx: RequestContext, clinicId?: string)
 
 /** Admins set the efficiency; null goes back to Kinloop's default. */
 export async function saveEnergySettings(ctx: RequestContext, input: z.infer<typeof energySettingsSchema>, clinicId?: string) {
-  const id = staffClinic(ctx.viewer, ['admin'], clinicId);
-  await ctx.knex('clinics').where({ id }).update({ fes_efficiency_pct: input.efficiencyPct });
-  await auditAs(ctx, { action: 'clinic.energy_settings_change', clinicId: id, detail: { efficiencyPct: input.efficiencyPct } });
-  return readEnergySettings(ctx, id);
+  const clinic = scope(ctx).clinic(['admin'], clinicId);
+  await clinic.db('clinics').update({ fes_efficiency_pct: input.efficiencyPct });
+  await clinic.audit({ action: 'clinic.energy_settings_change', detail: { efficiencyPct: input.efficiencyPct } });
+  return readEnergySettings(ctx, clinic.id);
 }

@@ -3,7 +3,8 @@
 // so that it is tested directly and never computed twice.
 import { DateTime } from 'luxon';
 import { linearTrend } from '../analytics/trend';
-import { localDate, parseIsoWeek } from '../time/iso-week';
+import { parseIsoWeek } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { acsmLegCycling, fesEnergyKcal, sessionWorkJ } from './energy';
 
 const WEEK_MS = 7 * 24 * 3600 * 1000;
@@ -195,7 +196,8 @@ export function reportFigures<S extends ReportSessionInput, V extends ReportVers
 
   const half = comparedCount(s.length);
   const activeS = s.reduce((sum, x) => sum + x.activeS, 0);
-  const peak = s.reduce<S | null>((best, x) => (x.peakPower5sW !== null && (best === null || x.peakPower5sW > best.peakPower5sW!) ? x : best), null);
+  // A session too short to count is no one's highest value.
+  const peak = s.reduce<S | null>((best, x) => (x.counted && x.peakPower5sW !== null && (best === null || x.peakPower5sW > best.peakPower5sW!) ? x : best), null);
   const cpw = s.filter((x) => x.currentPerWattMaPerW !== null).map((x) => ({ t: Date.parse(x.startedAt), y: x.currentPerWattMaPerW! }));
   const cpwTrend = cpw.length >= 3 ? linearTrend(cpw.map((p) => ({ x: (p.t - endMs) / WEEK_MS, y: p.y }))) : null;
   const cpwHalf = comparedCount(cpw.length);

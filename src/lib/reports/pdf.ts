@@ -359,7 +359,7 @@ export async function reportPdf(report: Report, locale: string): Promise<Buffer>
     for (const flag of f.flags) {
       room(doc, 40);
       para(doc, w.flagTitle(flag), { weight: 'semibold', size: 9 });
-      para(doc, `${flag.reason} ${w.flagRaised(flag)}`, { size: 8.5 });
+      para(doc, `${w.flagReason(flag)} ${w.flagRaised(flag)}`, { size: 8.5 });
       for (const h of flag.history) para(doc, w.flagEvent(h), { size: 7.5, x: M.left + 10, width: CONTENT_W - 10, color: SOFT });
     }
   } else {

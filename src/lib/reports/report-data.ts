@@ -3,8 +3,8 @@
 // report page and the PDF both start here, so they can never disagree.
 import { DateTime } from 'luxon';
 import { z } from 'zod';
-import { accessClient } from '../auth/access';
 import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
 import { checkView } from '../riders/checks';
 import { programStartOf, riderSessions } from '../riders/sessions';
 import { clientView } from '../clients/view';
@@ -16,7 +16,8 @@ import { loadHistory } from '../supervision/history';
 import { overviewOf } from '../supervision/overview';
 import { pauseView } from '../supervision/pauses';
 import { prescriptionVersions, prescriptionView } from '../supervision/prescriptions';
-import { isoWeekOf, localDate } from '../time/iso-week';
+import { isoWeekOf } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { addDays, isLocalDate } from '../time/local-date';
 import { paragraph } from '../validation/fields';
 import { clinicEfficiencyPct } from './energy-settings';
@@ -60,7 +61,10 @@ export interface ReportOptions {
 export async function loadReport(ctx: RequestContext, clientId: string, period: ReportPeriod, options: ReportOptions) {
   const now = options.now ?? new Date();
   const summary = options.summary?.trim() || null;
-  const row = await accessClient(ctx, clientId, 'manage', options.action, { ...period, ...(summary ? { summary } : {}) });
+  // The one access, and the one audit entry, of the report: everything below reads through this grant.
+  const grant = await scope(ctx).client(clientId, 'manage', options.action, { ...period, ...(summary ? { summary } : {}) });
+  const row = grant.row;
+  const db = grant.db;
   const tz = row.time_zone;
   const today = localDate(now, tz);
   if (period.to && period.to > today) {
@@ -75,21 +79,20 @@ export async function loadReport(ctx: RequestContext, clientId: string, period: 
   // Adherence is judged as it stood at the end of the period.
   const asOf = to < today ? new Date(DateTime.fromISO(addDays(to, 1), { zone: tz }).toMillis() - 1) : now;
 
-  const h = await loadHistory(ctx.knex, row);
+  const h = await loadHistory(db, row);
   const { adherence, overview } = overviewOf(h, asOf, weekCount);
   const from = period.from ?? adherence.weeks[0].monday;
-  const clinic = await ctx.knex('clinics').where({ id: row.clinic_id }).first('name', 'time_zone', 'fes_efficiency_pct');
-  const flags = await flagsWithHistory(ctx.knex, row.id);
-  const notes = await ctx.knex('client_notes as n').join('users as u', 'u.id', 'n.author_id').where('n.client_id', row.id).orderBy('n.created_at', 'desc').select('n.*', 'u.name as author_name');
-  const checks = await ctx.knex('checks as c')
+  const clinic = await db('clinics').where({ id: row.clinic_id }).first('name', 'time_zone', 'fes_efficiency_pct');
+  const flags = await flagsWithHistory(db, row.id);
+  const notes = await db('client_notes as n').join('users as u', 'u.id', 'n.author_id').orderBy('n.created_at', 'desc').select('n.*', 'u.name as author_name');
+  const checks = await db('checks as c')
     .join('users as u', 'u.id', 'c.recorded_by')
-    .where('c.client_id', row.id)
     // A day either side, so the local-day filter in figures.ts decides at the edges.
     .whereBetween('c.taken_at', [DateTime.fromISO(addDays(from, -1), { zone: 'utc' }).toJSDate(), DateTime.fromISO(addDays(to, 2), { zone: 'utc' }).toJSDate()])
     .orderBy('c.taken_at', 'desc')
     .select('c.*', 'u.name as recorded_by_name');
-  const versions = (await prescriptionVersions(ctx.knex, row.id)).map(prescriptionView);
-  const pauseRows: PauseRow[] = await ctx.knex<PauseRow>('pauses').where({ client_id: row.id }).orderBy('starts_on', 'desc');
+  const versions = (await prescriptionVersions(db, row.id)).map(prescriptionView);
+  const pauseRows: PauseRow[] = await db<PauseRow>('pauses').orderBy('starts_on', 'desc');
 
   const points = new Map(trendPointsOf(h).map((p) => [p.sessionId, p]));
   const sessions = h.sessions.map(({ row: r }) => ({

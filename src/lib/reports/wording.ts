@@ -1,31 +1,27 @@
 // The sentences of a progress report, shared by the page and the PDF so that
 // both say the same thing in the same words.
-import { dayLabel, instantLabel } from '../../components/client/dates';
 import { eventLabel, STATE_LABELS } from '../../components/client/flag-labels';
 import { versionChanges } from '../../components/client/prescription-wording';
-import { distance, number, withUnit } from '../../components/rides/format';
+import { distance, number, signed, withUnit } from '../format/numbers';
+import { flagReason } from '../flags/reason';
 import { FLAG_KIND_WORDS, FLAG_SEVERITY_WORDS } from '../flags/words';
-import { localDate } from '../time/iso-week';
+import { formatDate, formatDateTime } from '../time/format';
+import { localDate } from '../time/local-date';
 import type { Report } from './report-data';
 
 export const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;
 export const sentence = (text: string) => (text.endsWith('.') ? text : `${text}.`);
 export const pct = (v: number | null) => (v === null ? '—' : `${v} %`);
 
-/** A change with its sign, so that a rise reads "+0.40" and no change reads "0.00". */
-export function signed(value: number, digits: number, locale: string): string {
-  const rounded = Math.round(value * 10 ** digits) / 10 ** digits;
-  return `${rounded > 0 ? '+' : ''}${number(rounded, digits, locale)}`;
-}
+export { signed };
 
 export function reportWords(report: Report, locale: string) {
   const tz = report.client.timeZone;
   const f = report.figures;
-  const day = (localDay: string) => dayLabel(localDay, locale);
-  const at = (instant: string) => instantLabel(instant, locale, tz);
+  const day = (localDay: string) => formatDate(localDay, locale, 'day');
+  const at = (instant: string) => formatDateTime(instant, locale, tz, 'dateShort');
   // Every week starts on a Monday, so the weekday is left out.
-  const weekFromFormat = new Intl.DateTimeFormat(locale, { day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' });
-  const weekFrom = (monday: string) => weekFromFormat.format(new Date(`${monday}T00:00:00Z`));
+  const weekFrom = (monday: string) => formatDate(monday, locale, 'dateShort');
   /** A calendar date without its weekday, as for a date of birth. */
   const date = weekFrom;
   const history = report.prescription.history;
@@ -64,6 +60,7 @@ export function reportWords(report: Report, locale: string) {
       : null,
     energy: energyWords(report, locale),
     sinceStart: `Since the program started: ${plural(report.totals.sessions, 'session')}, ${number(report.totals.activeMinutes, 0, locale)} active minutes, ${distance(report.totals.distanceM, locale)}. Mean power over several sessions is weighted by their active time. A rising current per watt means more stimulation for the same power.`,
+    flagReason: (flag: Report['figures']['flags'][number]) => flagReason(flag, locale),
     flagTitle: (flag: Report['figures']['flags'][number]) => `${FLAG_KIND_WORDS[flag.kind]} · ${FLAG_SEVERITY_WORDS[flag.severity]} · ${STATE_LABELS[flag.state]}`,
     flagRaised: (flag: Report['figures']['flags'][number]) =>
       `Raised ${at(flag.raisedAt)}${flag.clearedAt ? `; the condition cleared ${at(flag.clearedAt)}` : ''}${

@@ -4,15 +4,16 @@
 // least one day), but no later than the day that still leaves the rest of
 // the week evenly spaced for the sessions still to do. So 3 a week comes out
 // as Monday, Wednesday, Friday, and only one session is ever due on a day.
-import { addDays, firstUnpausedOnOrAfter, isPaused, isoWeekday, localDateOf, mondayOf, type Instant, type Pause } from './calendar';
+import { addDays, isoWeekday, localDate, mondayOf } from '../time/local-date';
+import { firstUnpausedOnOrAfter, isPaused, type Pause } from './pauses';
 
 export interface NextSessionInput {
   timeZone: string;
-  now: Instant;
+  now: Date | string;
   sessionsPerWeek: number;
   /** Sessions counted towards the prescription in the ISO week that holds `now`. */
   countedThisWeek: number;
-  lastSessionAt: Instant | null;
+  lastSessionAt: Date | string | null;
   pauses: Pause[];
 }
 
@@ -31,7 +32,7 @@ export interface NextSessionDue {
 
 export function nextSessionDue(input: NextSessionInput): NextSessionDue {
   const { timeZone, sessionsPerWeek, pauses } = input;
-  const today = localDateOf(input.now, timeZone);
+  const today = localDate(input.now, timeZone);
   const remaining = Math.max(0, sessionsPerWeek - input.countedThisWeek);
   if (!(sessionsPerWeek > 0)) return { dueLocalDate: null, reason: 'no_target', remainingThisWeek: 0 };
 
@@ -39,7 +40,7 @@ export function nextSessionDue(input: NextSessionInput): NextSessionDue {
     return { dueLocalDate: firstUnpausedOnOrAfter(today, pauses), reason: 'paused', remainingThisWeek: remaining };
   }
 
-  const lastDate = input.lastSessionAt === null ? null : localDateOf(input.lastSessionAt, timeZone);
+  const lastDate = input.lastSessionAt === null ? null : localDate(input.lastSessionAt, timeZone);
   const restDays = Math.max(1, Math.round(7 / sessionsPerWeek));
   const earliest = lastDate === null ? today : addDays(lastDate, restDays);
 

@@ -1,9 +1,11 @@
-// A rider's personal bests. On a tie the earlier ride keeps the best, since
-// that is when it was first reached. Zero values are not bests.
-import { isoWeekLabel, localDateOf, mondayOf } from './calendar';
+// A rider's personal bests. On a tie the earlier session keeps the best, since
+// that is when it was first reached. Zero values are not bests, and neither is
+// anything from a session too short to count (a false start, a test spin).
+import { isoWeekKey } from '../time/iso-week';
+import { localDate, mondayOf } from '../time/local-date';
 import type { RiderSession } from './types';
 
-type BestInput = Pick<RiderSession, 'id' | 'startedAt' | 'activeS' | 'peakPower5sW' | 'distanceM'>;
+type BestInput = Pick<RiderSession, 'id' | 'startedAt' | 'activeS' | 'peakPower5sW' | 'distanceM' | 'counted'>;
 
 export interface PersonalBests {
   longestActive: { sessionId: string; startedAt: string | null; activeS: number } | null;
@@ -18,6 +20,7 @@ export function personalBests(sessions: BestInput[], timeZone: string): Personal
   const weeks = new Map<string, { isoWeek: string; monday: string; distanceM: number; sessions: number }>();
 
   for (const s of ordered) {
+    if (s.counted === false) continue;
     if (s.activeS > 0 && (longestActive === null || s.activeS > longestActive.activeS)) {
       longestActive = { sessionId: s.id, startedAt: s.startedAt, activeS: s.activeS };
     }
@@ -26,8 +29,8 @@ export function personalBests(sessions: BestInput[], timeZone: string): Personal
       highestPower5s = { sessionId: s.id, startedAt: s.startedAt, peakPower5sW: power };
     }
     if (s.startedAt !== null && s.distanceM !== null && s.distanceM > 0) {
-      const date = localDateOf(s.startedAt, timeZone);
-      const isoWeek = isoWeekLabel(date);
+      const date = localDate(s.startedAt, timeZone);
+      const isoWeek = isoWeekKey(date);
       const week = weeks.get(isoWeek) ?? { isoWeek, monday: mondayOf(date), distanceM: 0, sessions: 0 };
       week.distanceM += s.distanceM;
       week.sessions += 1;

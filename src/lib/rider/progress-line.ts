@@ -4,7 +4,7 @@
 // both have fallen it states the rides completed instead, because a rider's
 // home screen is not where a decline is judged (the therapist sees the trends).
 // No medical advice. Null until both months hold enough rides to compare.
-import { addDays, addMonths, localDateOf, type Instant } from './calendar';
+import { addDays, addMonths, localDate } from '../time/local-date';
 import type { RiderSession } from './types';
 
 type LineInput = Pick<RiderSession, 'startedAt' | 'activeS' | 'meanPowerW'>;
@@ -13,15 +13,15 @@ type LineInput = Pick<RiderSession, 'startedAt' | 'activeS' | 'meanPowerW'>;
 export const MIN_RIDES_PER_MONTH = 3;
 
 /** `programStart` is the program's first local date, 'YYYY-MM-DD'. */
-export function progressLine(sessions: LineInput[], programStart: string, now: Instant, timeZone: string): string | null {
-  const today = localDateOf(now, timeZone);
+export function progressLine(sessions: LineInput[], programStart: string, now: Date | string, timeZone: string): string | null {
+  const today = localDate(now, timeZone);
   const firstEnd = addMonths(programStart, 1);
   const latestStart = addDays(addMonths(today, -1), 1);
   if (latestStart < firstEnd) return null;
 
   const dated = sessions
     .filter((s) => s.startedAt !== null)
-    .map((s) => ({ ...s, date: localDateOf(s.startedAt as string, timeZone) }))
+    .map((s) => ({ ...s, date: localDate(s.startedAt as string, timeZone) }))
     .filter((s) => s.date >= programStart && s.date <= today);
   const first = dated.filter((s) => s.date < firstEnd);
   const latest = dated.filter((s) => s.date >= latestStart);
@@ -30,19 +30,19 @@ export function progressLine(sessions: LineInput[], programStart: string, now: I
   const firstMinutes = Math.round(mean(first.map((s) => s.activeS / 60)));
   const latestMinutes = Math.round(mean(latest.map((s) => s.activeS / 60)));
   if (latestMinutes > firstMinutes) {
-    return `Over the past month your rides averaged ${minutes(latestMinutes)}, up from ${firstMinutes} in your first month.`;
+    return `Over the past month your sessions averaged ${minutes(latestMinutes)}, up from ${firstMinutes} in your first month.`;
   }
 
   const firstPower = meanPower(first);
   const latestPower = meanPower(latest);
   if (firstPower !== null && latestPower !== null && latestPower > firstPower) {
-    return `Over the past month your rides averaged ${latestPower} watts of power, up from ${firstPower} in your first month.`;
+    return `Over the past month your sessions averaged ${latestPower} watts of power, up from ${firstPower} in your first month.`;
   }
 
   if (latestMinutes === firstMinutes) {
-    return `Over the past month your rides averaged ${minutes(latestMinutes)}, about the same as in your first month.`;
+    return `Over the past month your sessions averaged ${minutes(latestMinutes)}, about the same as in your first month.`;
   }
-  return `You have completed ${dated.length} ${dated.length === 1 ? 'ride' : 'rides'} since your program started.`;
+  return `You have completed ${dated.length} ${dated.length === 1 ? 'session' : 'sessions'} since your program started.`;
 }
 
 function mean(values: number[]): number {

@@ -7,4 +7,6 @@ export interface RiderSession {
   meanPowerW: number | null;
   peakPower5sW: number | null;
   distanceM: number | null;
+  /** False for a session too short to count against the prescription; such a session is no personal best. */
+  counted?: boolean;
 }

@@ -2,7 +2,8 @@
 // the current one, for the progress charts. Weeks without rides are kept, as
 // zeros, so a chart shows the gap. Mean power is weighted by active time, as
 // the per-ride means are (PRODUCT.md "Canonical ride metrics").
-import { addDays, isoWeekLabel, localDateOf, mondayOf, type Instant } from './calendar';
+import { isoWeekKey } from '../time/iso-week';
+import { addDays, localDate, mondayOf } from '../time/local-date';
 import type { RiderSession } from './types';
 
 type WeekInput = Pick<RiderSession, 'startedAt' | 'activeS' | 'meanPowerW' | 'distanceM'>;
@@ -22,17 +23,17 @@ export function weeklyProgress(
   sessions: WeekInput[],
   timeZone: string,
   programStart: string,
-  now: Instant,
+  now: Date | string,
 ): WeekProgress[] {
   const firstMonday = mondayOf(programStart);
-  const lastMonday = mondayOf(localDateOf(now, timeZone));
+  const lastMonday = mondayOf(localDate(now, timeZone));
   const weeks = new Map<string, WeekProgress & { powerWeight: number; powerSum: number }>();
   for (let m = firstMonday; m <= lastMonday; m = addDays(m, 7)) {
-    weeks.set(m, { isoWeek: isoWeekLabel(m), monday: m, sessions: 0, activeMinutes: 0, distanceM: 0, meanPowerW: null, powerWeight: 0, powerSum: 0 });
+    weeks.set(m, { isoWeek: isoWeekKey(m), monday: m, sessions: 0, activeMinutes: 0, distanceM: 0, meanPowerW: null, powerWeight: 0, powerSum: 0 });
   }
   for (const s of sessions) {
     if (s.startedAt === null) continue;
-    const week = weeks.get(mondayOf(localDateOf(s.startedAt, timeZone)));
+    const week = weeks.get(mondayOf(localDate(s.startedAt, timeZone)));
     if (!week) continue;
     week.sessions += 1;
     week.activeMinutes += s.activeS / 60;

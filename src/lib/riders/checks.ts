@@ -1,5 +1,5 @@
-import { accessClient } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
 import { baselineSystolic } from '../checks/baseline';
 import type { CheckInput } from '../checks/check-input';
 import { evaluateCheck } from '../checks/evaluate-check';
@@ -38,19 +38,18 @@ export function checkView(row: CheckRow & { recorded_by_name?: string }) {
  * therapists at once (see alerts.ts).
  */
 export async function recordCheck(ctx: RequestContext, clientId: string, input: CheckInput) {
-  const client = await accessClient(ctx, clientId, 'contribute', 'check.create');
+  const grant = await scope(ctx).client(clientId, 'contribute', 'check.create');
+  const client = grant.row;
   if (input.sessionId) {
-    const ride = await ctx.knex('rides').where({ id: input.sessionId, client_id: client.id }).first('id');
+    const ride = await grant.db('rides').where({ id: input.sessionId }).first('id');
     if (!ride) throw badRequest('That session is not one of this client’s sessions.', { fields: [{ path: 'sessionId', message: 'Choose one of the client’s sessions.' }] });
   }
-  const priors: number[] = await ctx.knex('checks').where({ client_id: client.id }).whereNotNull('bp_before_systolic').orderBy('taken_at').pluck('bp_before_systolic');
+  const priors: number[] = await grant.db('checks').whereNotNull('bp_before_systolic').orderBy('taken_at').pluck('bp_before_systolic');
   const baseline = baselineSystolic(client.baseline_systolic, priors);
   const evaluation = evaluateCheck(input, { injuryLevel: client.injury_level, adRisk: client.ad_risk, baselineSystolic: baseline.value });
   const stored = { ...evaluation, baseline };
-  const [row] = await ctx.knex<CheckRow>('checks')
+  const [row] = await grant.db<CheckRow>('checks')
     .insert({
-      client_id: client.id,
-      clinic_id: client.clinic_id,
       recorded_by: ctx.viewer.userId,
       taken_at: input.takenAt ? new Date(input.takenAt) : new Date(),
       ride_id: input.sessionId ?? null,
@@ -71,9 +70,11 @@ export async function recordCheck(ctx: RequestContext, clientId: string, input: 
       evaluation: JSON.stringify(stored) as never,
     })
     .returning('*');
-  await auditAs(ctx, { action: 'check.record', clinicId: client.clinic_id, clientId: client.id, recordType: 'check', recordId: row.id });
+  await grant.audit({ action: 'check.record', recordType: 'check', recordId: row.id });
+  // The flag is the clinic's record, which a carer or rider cannot see; raising it (and alerting the therapists) is what the check sets off.
+  const consequences = grant.system('the flags a check raises');
   for (const c of evaluation.conditions) {
-    await raiseCheckFlag(ctx.knex, { clientId: client.id, clinicId: client.clinic_id, kind: c.kind, severity: c.severity, anchor: `check:${row.id}`, reason: c.reason, evidence: { ...c.evidence, checkId: row.id } });
+    await raiseCheckFlag(consequences, { clientId: client.id, clinicId: client.clinic_id, kind: c.kind, severity: c.severity, anchor: `check:${row.id}`, reason: c.reason, evidence: { ...c.evidence, checkId: row.id } });
   }
   return {
     check: checkView({ ...row, recorded_by_name: ctx.viewer.name }),
@@ -88,7 +89,7 @@ export async function recordCheck(ctx: RequestContext, clientId: string, input: 
 }
 
 export async function listChecks(ctx: RequestContext, clientId: string, limit = 50) {
-  const client = await accessClient(ctx, clientId, 'read', 'checks.list');
-  const rows = await ctx.knex('checks as c').join('users as u', 'u.id', 'c.recorded_by').where('c.client_id', client.id).orderBy('c.taken_at', 'desc').limit(limit).select('c.*', 'u.name as recorded_by_name');
+  const client = await scope(ctx).client(clientId, 'read', 'checks.list');
+  const rows = await client.db('checks as c').join('users as u', 'u.id', 'c.recorded_by').orderBy('c.taken_at', 'desc').limit(limit).select('c.*', 'u.name as recorded_by_name');
   return { checks: rows.map(checkView) };
 }

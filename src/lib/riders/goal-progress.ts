@@ -1,4 +1,4 @@
-import type { Knex } from 'knex';
+import type { Db, Query } from '../data/db';
 import { DateTime } from 'luxon';
 import type { ClientRow, DistanceGoalRow } from '../db/tables';
 import { BUILTIN_ROUTES, builtinRoute } from '../goals/builtin-routes';
@@ -11,7 +11,7 @@ export function routeView(route: Route) {
 export const listRoutes = () => ({ routes: BUILTIN_ROUTES.map(routeView) });
 
 /** The client's current distance goal and how far their rides since its start date have taken them along it. */
-export async function readGoalFor(knex: Knex, client: ClientRow, goal?: DistanceGoalRow) {
+export async function readGoalFor(knex: Db, client: ClientRow, goal?: DistanceGoalRow) {
   const row = goal ?? (await knex<DistanceGoalRow>('distance_goals').where({ client_id: client.id }).whereNull('replaced_at').first());
   const route = row ? (row.builtin_route_id ? (builtinRoute(row.builtin_route_id) ?? null) : row.custom_route) : null;
   if (!row || !route) return null;

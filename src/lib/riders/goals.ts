@@ -1,7 +1,7 @@
 import { DateTime } from 'luxon';
 import { z } from 'zod';
-import { accessClient } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
 import type { DistanceGoalRow } from '../db/tables';
 import { readGoalFor } from './goal-progress';
 import { builtinRoute } from '../goals/builtin-routes';
@@ -19,29 +19,29 @@ export const goalInputSchema = z
   .refine((g) => Boolean(g.routeId) !== Boolean(g.customRoute), { message: 'Choose one of the routes, or enter your own — not both.', path: ['routeId'] });
 
 export async function readGoal(ctx: RequestContext, clientId: string) {
-  const client = await accessClient(ctx, clientId, 'read', 'goal.view');
-  return { goal: await readGoalFor(ctx.knex, client) };
+  const client = await scope(ctx).client(clientId, 'read', 'goal.view');
+  return { goal: await readGoalFor(client.db, client.row) };
 }
 
 /** A new goal replaces the current one (kept, marked replaced). */
 export async function chooseGoal(ctx: RequestContext, clientId: string, input: z.infer<typeof goalInputSchema>) {
-  const client = await accessClient(ctx, clientId, 'contribute', 'goal.choose');
+  const grant = await scope(ctx).client(clientId, 'contribute', 'goal.choose');
+  const client = grant.row;
   if (input.routeId && !builtinRoute(input.routeId)) throw badRequest('That route does not exist; choose one of the listed routes.', { fields: [{ path: 'routeId', message: 'Choose one of the listed routes.' }] });
   const today = DateTime.now().setZone(client.time_zone).toISODate()!;
   const countFrom = input.countFrom ?? client.program_start ?? today;
-  const goal = await ctx.knex.transaction(async (trx) => {
-    await trx('distance_goals').where({ client_id: client.id }).whereNull('replaced_at').update({ replaced_at: trx.fn.now() });
-    const [row] = await trx<DistanceGoalRow>('distance_goals')
+  const goal = await grant.transaction(async (tx) => {
+    await tx.db('distance_goals').whereNull('replaced_at').update({ replaced_at: tx.db.fn.now() });
+    const [row] = await tx.db<DistanceGoalRow>('distance_goals')
       .insert({
-        client_id: client.id,
         builtin_route_id: input.routeId ?? null,
         custom_route: input.customRoute ? (JSON.stringify({ id: 'custom', ...input.customRoute }) as never) : null,
         count_from: countFrom,
         chosen_by: ctx.viewer.userId,
       })
       .returning('*');
-    await auditAs(ctx, { action: 'goal.choose', clinicId: client.clinic_id, clientId: client.id, recordType: 'distance_goal', recordId: row.id }, trx);
+    await tx.audit({ action: 'goal.choose', recordType: 'distance_goal', recordId: row.id });
     return row;
   });
-  return { goal: await readGoalFor(ctx.knex, client, goal) };
+  return { goal: await readGoalFor(grant.db, client, goal) };
 }

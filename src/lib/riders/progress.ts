@@ -1,14 +1,15 @@
-import { accessClient } from '../auth/access';
 import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
 import { personalBests } from '../rider/personal-bests';
 import { weeklyProgress } from '../rider/weekly-progress';
 import { loadHistory } from '../supervision/history';
-import { localDate } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { programStartOf, riderSessions } from './sessions';
 
 export async function riderProgress(ctx: RequestContext, clientId: string, now = new Date()) {
-  const client = await accessClient(ctx, clientId, 'read', 'progress.view');
-  const h = await loadHistory(ctx.knex, client);
+  const grant = await scope(ctx).client(clientId, 'read', 'progress.view');
+  const client = grant.row;
+  const h = await loadHistory(grant.db, client);
   const sessions = riderSessions(h);
   const start = programStartOf(h, localDate(now, client.time_zone));
   const weeks = weeklyProgress(sessions, client.time_zone, start, now);

@@ -1,8 +1,11 @@
+import { prescriptionTimeline, sessionStatus } from '../adherence';
 import type { ClientHistory } from '../supervision/history';
-import type { Pause as RiderPause } from '../rider/calendar';
+import { localDate } from '../time/local-date';
+import type { Pause as RiderPause } from '../rider/pauses';
 import type { RiderSession } from '../rider/types';
 
 export function riderSessions(h: ClientHistory): RiderSession[] {
+  const timeline = prescriptionTimeline(h.prescriptions);
   return h.sessions.map((s) => ({
     id: s.id,
     startedAt: s.startedAt,
@@ -10,6 +13,7 @@ export function riderSessions(h: ClientHistory): RiderSession[] {
     meanPowerW: s.meanPowerW,
     peakPower5sW: s.row.peak_power_5s_w,
     distanceM: s.row.distance_m,
+    counted: sessionStatus(s.durationS, timeline.versionOn(localDate(s.startedAt, h.client.time_zone)), h.thresholds.countThresholdPct) !== 'short',
   }));
 }
 

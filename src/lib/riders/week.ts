@@ -1,16 +1,18 @@
 import { computeAdherence, prescriptionTimeline } from '../adherence';
-import { accessClient } from '../auth/access';
 import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
 import { nextSessionDue } from '../rider/next-session';
 import { progressLine } from '../rider/progress-line';
 import { loadHistory } from '../supervision/history';
-import { isoWeekOf, localDate } from '../time/iso-week';
+import { isoWeekOf } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { programStartOf, riderPauses, riderSessions } from './sessions';
 
 /** The rider's week: sessions against the prescription, streak, next session due, the latest ride and a progress line. */
 export async function riderWeek(ctx: RequestContext, clientId: string, now = new Date()) {
-  const client = await accessClient(ctx, clientId, 'read', 'week.view');
-  const h = await loadHistory(ctx.knex, client);
+  const grant = await scope(ctx).client(clientId, 'read', 'week.view');
+  const client = grant.row;
+  const h = await loadHistory(grant.db, client);
   const tz = client.time_zone;
   const today = localDate(now, tz);
   const week = isoWeekOf(today, tz);
@@ -25,8 +27,8 @@ export async function riderWeek(ctx: RequestContext, clientId: string, now = new
   const last = h.sessions[h.sessions.length - 1] ?? null;
   const next = nextSessionDue({ timeZone: tz, now, sessionsPerWeek: version?.sessionsPerWeek ?? 0, countedThisWeek: current.counted, lastSessionAt: last?.startedAt ?? null, pauses: riderPauses(h) });
   const activePause = h.pauses.find((p) => p.from <= today && p.to >= today) ?? null;
-  const pauseRow = activePause ? await ctx.knex('pauses').where({ client_id: client.id, starts_on: activePause.from, ends_on: activePause.to }).whereNull('cancelled_at').first('reason') : null;
-  const lastUpload = await ctx.knex('uploads').where({ client_id: client.id }).max('uploaded_at as at').first();
+  const pauseRow = activePause ? await grant.db('pauses').where({ starts_on: activePause.from, ends_on: activePause.to }).whereNull('cancelled_at').first('reason') : null;
+  const lastUpload = await grant.db('uploads').max('uploaded_at as at').first();
   const view = (s: (typeof h.sessions)[number]) => ({
     id: s.id,
     startedAt: s.startedAt,

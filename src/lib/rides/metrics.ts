@@ -1,7 +1,9 @@
 // The canonical ride summary (PRODUCT.md, "Canonical ride metrics") from a
 // series in canonical units. Shared by the parser, the demo generator and tests.
 
-import { deltas, median, TIME_TOLERANCE_S } from './deltas';
+import { median } from '../analytics/median';
+import { roundTo } from '../analytics/round';
+import { deltas, TIME_TOLERANCE_S } from './deltas';
 import { NAMED_CHANNELS, NUMBERED_CHANNELS, type ChannelName, type ChannelSummary, type RideSeries, type RideSummary } from './types';
 
 export const DEFAULT_METRES_PER_REV = 2.0;
@@ -45,12 +47,6 @@ export const DECIMALS = {
   hertz: 1,
 } as const;
 
-export function roundTo(value: number, decimals: number): number {
-  const f = 10 ** decimals;
-  const r = (Math.sign(value) * Math.round(Math.abs(value) * f)) / f;
-  return r === 0 ? 0 : r;
-}
-
 // A distance column of astronomically large values can overflow last − first.
 const roundOrNull = (value: number | null, decimals: number) => (value === null || !Number.isFinite(value) ? null : roundTo(value, decimals));
 
@@ -78,8 +74,7 @@ function weightedMean(values: Float64Array, d: Float64Array, mask: Uint8Array): 
 function maskedMedian(values: Float64Array, mask: Uint8Array): number | null {
   const picked: number[] = [];
   for (let k = 0; k < values.length; k++) if (mask[k] === 1 && values[k] === values[k]) picked.push(values[k]);
-  const m = median(picked);
-  return Number.isFinite(m) ? m : null;
+  return median(picked);
 }
 
 function maximum(values: Float64Array): number | null {

@@ -4,7 +4,8 @@
 import type { TimeColumn } from './columns';
 import { lineBreakOf } from './csv';
 import { decodeBytes, looksLikeText } from './decode';
-import { median, PAUSE_S } from './deltas';
+import { median } from '../analytics/median';
+import { PAUSE_S } from './deltas';
 import { describeField, quantityOf, type ColumnReading } from './headers';
 import { commasToPoints, findLayout, usesDecimalComma, type PreambleLine } from './layout';
 import { checkDataRows, longLine } from './limits';
@@ -76,7 +77,7 @@ function readTimeline(time: TimeColumn, reading: ColumnReading, profileFormat: T
     const steps = new Float64Array(n - 1);
     for (let k = 0; k < n - 1; k++) steps[k] = time.raw[keep[k + 1]] - time.raw[keep[k]];
     const step = median(steps);
-    if (step > PAUSE_S) {
+    if (step !== null && step > PAUSE_S) {
       format = 'milliseconds';
       warnings.push(
         `The time column "${reading.header}" states no unit and its median step of ${step} would make every step a pause if read as seconds; it was read as milliseconds.`,

@@ -206,10 +206,3 @@ export function detectTimeFormat(cell: string, millisecondsUnit: boolean): TimeF
   if (Number.isFinite(parseIsoMs(cell))) return 'iso';
   return null;
 }
-
-/** One time cell in the column's format, in that format's raw unit; NaN when unreadable. */
-export function readTime(cell: string | undefined, format: TimeFormat): number {
-  if (cell === undefined) return NaN;
-  if (format === 'seconds' || format === 'milliseconds') return readNumber(cell);
-  return format === 'clock' ? parseClock(cell) : parseIsoMs(cell);
-}

@@ -100,10 +100,6 @@ export function isUnitWord(text: string): boolean {
   return key !== '' && Object.values(TABLE).some((m) => m.has(key));
 }
 
-export function toCanonical(u: Unit, value: number): number {
-  return (value * u.multiply) / u.divide;
-}
-
 export function isIdentity(u: Unit): boolean {
   return u.multiply === 1 && u.divide === 1;
 }

@@ -1,7 +1,7 @@
 import { z } from 'zod';
-import { accessClient, accessClientRecord } from '../auth/access';
+import { canDownloadRaw } from '../auth/access';
 import type { RequestContext } from '../auth/context';
-import type { RideRow } from '../db/tables';
+import { scope } from '../data';
 import { decodeSeries } from '../rides/series-codec';
 import { chartSeries } from './chart-series';
 import { sessionListItem } from './view';
@@ -14,8 +14,8 @@ export const sessionsQuerySchema = z.object({
 
 /** A client's sessions, newest first; `nextBefore` pages on. */
 export async function listSessions(ctx: RequestContext, clientId: string, query: z.infer<typeof sessionsQuerySchema>) {
-  const client = await accessClient(ctx, clientId, 'read', 'sessions.list');
-  const q = ctx.knex<RideRow>('rides').where({ client_id: client.id }).orderBy('started_at', 'desc').limit(query.limit + 1);
+  const client = await scope(ctx).client(clientId, 'read', 'sessions.list');
+  const q = client.db('rides').orderBy('started_at', 'desc').limit(query.limit + 1);
   if (query.before) q.where('started_at', '<', new Date(query.before));
   const rows = await q;
   const page = rows.slice(0, query.limit);
@@ -27,17 +27,29 @@ export async function listSessions(ctx: RequestContext, clientId: string, query:
 
 export const sessionQuerySchema = z.object({ points: z.coerce.number().int().min(10).max(20_000).optional() });
 
-/** A session without its series, and whether it has one (the session page; its charts fetch the series themselves). */
-export async function readSessionHead(ctx: RequestContext, id: string) {
-  const found = z.string().uuid().safeParse(id).success ? await ctx.knex<RideRow>('rides').where({ id }).first() : undefined;
-  const { row } = await accessClientRecord(ctx, found, { what: 'That session', type: 'session', id }, 'read', 'session.view', { sessionId: id });
-  const stored = await ctx.knex('ride_series').where({ ride_id: id }).first(ctx.knex.raw('1 AS present'));
-  return { ...sessionListItem(row), hasSeries: stored !== undefined };
+export async function readSession(ctx: RequestContext, id: string, points: number | null) {
+  return (await sessionWithClient(ctx, id, points)).session;
 }
 
-export async function readSession(ctx: RequestContext, id: string, points: number | null) {
-  const found = z.string().uuid().safeParse(id).success ? await ctx.knex<RideRow>('rides').where({ id }).first() : undefined;
-  const { row } = await accessClientRecord(ctx, found, { what: 'That session', type: 'session', id }, 'read', 'session.view', { sessionId: id });
-  const stored = await ctx.knex('ride_series').where({ ride_id: id }).first('data');
-  return { ...sessionListItem(row), series: stored ? chartSeries(decodeSeries(stored.data), points) : null };
+async function sessionWithClient(ctx: RequestContext, id: string, points: number | null) {
+  const { row, client } = await scope(ctx).record('session', id, 'read', 'session.view', { sessionId: id });
+  const stored = await client.db('ride_series').where({ ride_id: row.id }).first('data');
+  return { session: { ...sessionListItem(row), series: stored ? chartSeries(decodeSeries(stored.data), points) : null }, client };
+}
+
+/**
+ * What the session page shows: the session without its series (its charts
+ * fetch the series themselves, SessionCharts.tsx) and whether it has one,
+ * whose it is, and whether the caller may download its ride file.
+ */
+export async function readSessionPage(ctx: RequestContext, id: string) {
+  const { row, client } = await scope(ctx).record('session', id, 'read', 'session.view', { sessionId: id });
+  const stored = await client.db('ride_series').where({ ride_id: row.id }).first('ride_id');
+  const upload = await client.db('uploads').where({ id: row.upload_id }).first('uploaded_by');
+  return {
+    session: sessionListItem(row),
+    hasSeries: stored !== undefined,
+    client: { id: client.id, name: client.row.display_name, timeZone: client.row.time_zone, managed: client.managed },
+    canDownload: upload !== undefined && canDownloadRaw(ctx.viewer, upload, client.row),
+  };
 }

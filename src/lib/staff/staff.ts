@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { staffClinic } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
 import { revokeUserSessions } from '../auth/sessions';
 import { badRequest, notFound } from '../http/errors';
 
@@ -13,10 +13,9 @@ export const staffUpdateSchema = z
   .refine((v) => v.role !== undefined || v.disabled !== undefined, { message: 'Change the role or the disabled state.' });
 
 export async function listStaff(ctx: RequestContext, clinicId?: string) {
-  const clinic = staffClinic(ctx.viewer, ['admin'], clinicId);
-  const rows = await ctx.knex('memberships as m')
+  const clinic = scope(ctx).clinic(['admin'], clinicId);
+  const rows = await clinic.db('memberships as m')
     .join('users as u', 'u.id', 'm.user_id')
-    .where('m.clinic_id', clinic)
     .orderBy('u.name')
     .select('u.id', 'u.name', 'u.email', 'u.disabled_at', 'm.role', 'm.created_at');
   return rows.map((r) => ({
@@ -31,19 +30,17 @@ export async function listStaff(ctx: RequestContext, clinicId?: string) {
 
 /** Changes a colleague's role or disables the account; disabling ends their sessions at once. */
 export async function updateStaff(ctx: RequestContext, userId: string, input: z.infer<typeof staffUpdateSchema>) {
-  const clinic = staffClinic(ctx.viewer, ['admin'], input.clinicId);
-  const member = /^[0-9a-f-]{36}$/i.test(userId)
-    ? await ctx.knex('memberships').where({ user_id: userId, clinic_id: clinic }).first()
-    : undefined;
+  const clinic = scope(ctx).clinic(['admin'], input.clinicId);
+  const member = /^[0-9a-f-]{36}$/i.test(userId) ? await clinic.db('memberships').where({ user_id: userId }).first() : undefined;
   if (!member) throw notFound('That staff member');
   if (userId === ctx.viewer.userId) throw badRequest('You cannot change your own role or disable your own account; ask another administrator.');
-  await ctx.knex.transaction(async (trx) => {
-    if (input.role) await trx('memberships').where({ id: member.id }).update({ role: input.role });
+  await clinic.transaction(async (tx) => {
+    if (input.role) await tx.db('memberships').where({ id: member.id }).update({ role: input.role });
     if (input.disabled !== undefined) {
-      await trx('users').where({ id: userId }).update({ disabled_at: input.disabled ? trx.fn.now() : null, updated_at: trx.fn.now() });
-      if (input.disabled) await revokeUserSessions(trx, userId);
+      await tx.db('users').where({ id: userId }).update({ disabled_at: input.disabled ? tx.db.fn.now() : null, updated_at: tx.db.fn.now() });
+      if (input.disabled) await revokeUserSessions(tx.system('a disabled account’s sessions end'), userId);
     }
-    await auditAs(ctx, { action: 'staff.update', clinicId: clinic, recordType: 'user', recordId: userId, detail: { role: input.role, disabled: input.disabled } }, trx);
+    await tx.audit({ action: 'staff.update', recordType: 'user', recordId: userId, detail: { role: input.role, disabled: input.disabled } });
   });
-  return (await listStaff(ctx, clinic)).find((s) => s.userId === userId)!;
+  return (await listStaff(ctx, clinic.id)).find((s) => s.userId === userId)!;
 }

@@ -4,11 +4,12 @@
 // migration or seed), read by `adherenceOf` for lists and pages. A client
 // whose stored weeks no longer match their data is read the old way, from the
 // whole history, so the answer never depends on whether a refresh has run.
-import type { Knex } from 'knex';
 import { computeAdherence, type Adherence, type Pause, type PrescriptionVersion } from '../adherence';
 import { adherenceFromStored, storedWeeksFrom, StoredWeeksMissing, weeksToStore, type StoredWeek } from '../adherence/stored';
+import { programRows, type Db } from '../data';
 import type { ClientRow } from '../db/tables';
-import { isoWeekOf, localDate } from '../time/iso-week';
+import { isoWeekOf } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 import { flagThresholdsSchema } from '../flags';
 import { loadHistories, loadHistory } from './history';
 
@@ -52,9 +53,9 @@ const weekOf = (r: WeekRow): StoredWeek => ({
  * is in the history read here or leaves the state stale (its trigger waits
  * for this lock and then raises `input_seq` past what is stored).
  */
-export async function refreshAdherence(knex: Knex, clientId: string, now = new Date()): Promise<void> {
+export async function refreshAdherence(knex: Db, clientId: string, now = new Date()): Promise<void> {
   await knex.transaction(async (trx) => {
-    await trx.raw('INSERT INTO adherence_state (client_id, input_seq) VALUES (?, 0) ON CONFLICT (client_id) DO NOTHING', [clientId]);
+    await trx('adherence_state').insert({ client_id: clientId, input_seq: 0 }).onConflict('client_id').ignore();
     const state = await trx<StateRow>('adherence_state').where({ client_id: clientId }).forUpdate().first('input_seq');
     const client = await trx<ClientRow>('clients').where({ id: clientId }).first();
     if (!client || !state) return;
@@ -96,7 +97,7 @@ export async function refreshAdherence(knex: Knex, clientId: string, now = new D
  * current week already (the flag judgement at each client's midnight calls it:
  * six nights of seven there is nothing to do).
  */
-export async function refreshAdherenceIfNeeded(knex: Knex, clientId: string, now = new Date()): Promise<boolean> {
+export async function refreshAdherenceIfNeeded(knex: Db, clientId: string, now = new Date()): Promise<boolean> {
   const row = await knex('adherence_state as s')
     .join('clients as c', 'c.id', 's.client_id')
     .join('clinics as k', 'k.id', 'c.clinic_id')
@@ -121,7 +122,7 @@ export async function refreshAdherenceIfNeeded(knex: Knex, clientId: string, now
  * out of date (after a migration, a seed, a change of the clinic's count
  * threshold, or a refresh that failed). Returns how many it refreshed.
  */
-export async function refreshStaleAdherence(knex: Knex, { now = new Date(), pageSize = 100, maxClients = Infinity }: { now?: Date; pageSize?: number; maxClients?: number } = {}): Promise<number> {
+export async function refreshStaleAdherence(knex: Db, { now = new Date(), pageSize = 100, maxClients = Infinity }: { now?: Date; pageSize?: number; maxClients?: number } = {}): Promise<number> {
   let done = 0;
   let after = '00000000-0000-0000-0000-000000000000';
   while (done < maxClients) {
@@ -195,7 +196,7 @@ const storedWeekOf = (w: NonNullable<ProgramRow['weeks']>[number]): StoredWeek =
  * out of date is read from the whole history instead.
  */
 export async function readClients(
-  knex: Knex,
+  knex: Db,
   clients: Pick<ClientRow, 'id'>[],
   now: Date,
   weeks: number,
@@ -206,22 +207,7 @@ export async function readClients(
   const nowIso = now.toISOString();
   // The earliest Monday any client's window starts on: Mondays differ by zone only around midnight.
   const from = storedWeeksFrom(new Date(now.getTime() - 86_400_000).toISOString(), 'UTC', weeks);
-  const recent = sessionsSince
-    ? `, (SELECT json_agg(json_build_array(floor(extract(epoch FROM r.started_at) * 1000), r.mean_power_w) ORDER BY r.started_at)
-            FROM rides r WHERE r.client_id = c.id AND r.started_at > :since AND r.started_at <= :now) AS recent`
-    : '';
-  const { rows } = await knex.raw<{ rows: ProgramRow[] }>(
-    `SELECT c.id, c.time_zone, k.flag_thresholds, s.input_seq::text, s.source_seq::text, s.count_threshold_pct, s.first_monday, s.through_monday,
-       (SELECT json_agg(json_build_array(p.effective_from, p.sessions_per_week, p.minutes_per_session) ORDER BY p.version) FROM prescriptions p WHERE p.client_id = c.id) AS prescriptions,
-       (SELECT json_agg(json_build_array(p.starts_on, p.ends_on)) FROM pauses p WHERE p.client_id = c.id AND p.cancelled_at IS NULL) AS pauses,
-       (SELECT json_agg(json_build_array(w.monday, w.sessions, w.counted, w.short, w.prescribed, w.met, w.paused, w.has_prescription, w.run))
-          FROM adherence_weeks w WHERE w.client_id = c.id AND (w.monday >= :from OR w.monday = s.through_monday)) AS weeks,
-       (SELECT r.started_at FROM rides r WHERE r.client_id = c.id ORDER BY r.started_at DESC LIMIT 1) AS last_at
-       ${recent}
-     FROM clients c JOIN clinics k ON k.id = c.clinic_id LEFT JOIN adherence_state s ON s.client_id = c.id
-     WHERE c.id = ANY(CAST(:ids AS uuid[]))`,
-    { ids: clients.map((c) => c.id), from, now, since: sessionsSince ?? now },
-  );
+  const rows = (await programRows(knex, clients.map((c) => c.id), { from, now, sessionsSince })) as ProgramRow[];
   const thresholds = new Map<string, number>();
   const thresholdOf = (raw: unknown) => {
     const key = JSON.stringify(raw ?? {});
@@ -281,7 +267,7 @@ export async function readClients(
 }
 
 /** `readClients`' adherence alone. */
-export async function adherenceOf(knex: Knex, clients: Pick<ClientRow, 'id'>[], now: Date, weeks: number): Promise<Map<string, Adherence>> {
+export async function adherenceOf(knex: Db, clients: Pick<ClientRow, 'id'>[], now: Date, weeks: number): Promise<Map<string, Adherence>> {
   return new Map([...(await readClients(knex, clients, now, weeks))].map(([id, r]) => [id, r.adherence]));
 }
 

@@ -1,12 +1,14 @@
 import { z } from 'zod';
 import { prescriptionTimeline, sessionStatus } from '../adherence';
-import { localDate, isoWeekOf, weeksEndingAt } from '../time/iso-week';
-import { startOfLocalDay } from '../time/local-date';
-import { median } from '../analytics/median';
+import { isoWeekOf, weeksEndingAt } from '../time/iso-week';
+import { localDate } from '../time/local-date';
+import { startOfLocalDay } from '../time/zoned';
+import { usualLevel } from '../flags/metric-shift';
 import { powerTrendPerWeek, POWER_TREND_WEEKS } from '../analytics/trend';
-import { accessClient } from '../auth/access';
+import { roundTo } from '../analytics/round';
 import type { RequestContext } from '../auth/context';
-import type { ClientRow, RideRow } from '../db/tables';
+import { scope, type ClientGrant } from '../data';
+import type { RideRow } from '../db/tables';
 import { adherenceOf } from './adherence-store';
 import { loadHistory, loadProgram, sessionOf, type ClientHistory } from './history';
 import { overviewOf } from './overview';
@@ -14,8 +16,8 @@ import { overviewOf } from './overview';
 export const adherenceQuerySchema = z.object({ weeks: z.coerce.number().int().min(1).max(104).default(12) });
 
 export async function clientAdherence(ctx: RequestContext, clientId: string, weeks: number) {
-  const client = await accessClient(ctx, clientId, 'read', 'adherence.view');
-  const adherence = (await adherenceOf(ctx.knex, [client], new Date(), weeks)).get(client.id)!;
+  const client = await scope(ctx).client(clientId, 'read', 'adherence.view');
+  const adherence = (await adherenceOf(client.db, [client.row], new Date(), weeks)).get(client.id)!;
   return {
     weeks: adherence.weeks.map((w) => ({ isoWeek: w.isoWeek, prescribed: w.prescribed, counted: w.counted, short: w.short, met: w.met, paused: w.paused })),
     streakWeeks: adherence.streakWeeks,
@@ -27,58 +29,59 @@ export const trendsQuerySchema = z.object({ weeks: z.coerce.number({ message: 'w
 
 /**
  * Per-session points for the client page's charts: mean power with the usual
- * level it is judged against (the median of the counted sessions before it,
- * as the power_drop rule takes it) and the review band below it, duration
- * against the prescribed minutes, and current per watt. With `weeks`, only
- * the sessions of the ISO weeks ending with the current one (the page asks
- * for half a year), read with just enough earlier sessions for the first
- * point's usual level; without it, the whole history.
+ * level the power_drop rule would judge against with that session the latest
+ * (usualLevel: the counted, unpaused sessions before the latest two) and the
+ * review band below it, duration against the prescribed minutes, and current
+ * per watt. With `weeks`, only the sessions of the ISO weeks ending with the
+ * current one (the page asks for half a year), read with just enough earlier
+ * sessions for the first point's usual level; without it, the whole history.
  */
 export async function clientTrends(ctx: RequestContext, clientId: string, weeks?: number) {
-  const client = await accessClient(ctx, clientId, 'read', 'trends.view');
+  const client = await scope(ctx).client(clientId, 'read', 'trends.view');
   const now = new Date();
   if (weeks === undefined) {
-    const h = await loadHistory(ctx.knex, client);
+    const h = await loadHistory(client.db, client.row);
     const { overview } = overviewOf(h, now);
     return { sessions: trendPointsOf(h), powerTrendWPerWeek: overview.powerTrendWPerWeek, thresholds: h.thresholds };
   }
-  const program = await loadProgram(ctx.knex, client);
-  const today = localDate(now, client.time_zone);
-  const from = new Date(startOfLocalDay(weeksEndingAt(isoWeekOf(today, client.time_zone), weeks)[0].monday, client.time_zone));
-  const shown = (await ridesOf(ctx, client).where('started_at', '>=', from).orderBy('started_at')).map(sessionOf);
+  const program = await loadProgram(client.db, client.row);
+  const zone = client.row.time_zone;
+  const from = new Date(startOfLocalDay(weeksEndingAt(isoWeekOf(localDate(now, zone), zone), weeks)[0].monday, zone));
+  const shown = (await ridesOf(client).where('started_at', '>=', from).orderBy('started_at')).map(sessionOf);
   const h: ClientHistory = { ...program, sessions: shown };
   const rule = trendRule(h);
-  // Earlier sessions, newest first, until the usual level of the first point shown is settled.
+  // Earlier eligible sessions, newest first, until the usual level of the first point shown is settled.
   const need = h.thresholds.baselineSessions + 2;
   const prior: number[] = [];
   for (let offset = 0; prior.length < need; offset += PRIOR_PAGE) {
-    const page = (await ridesOf(ctx, client).where('started_at', '<', from).orderBy('started_at', 'desc').offset(offset).limit(PRIOR_PAGE)).map(sessionOf);
+    const page = (await ridesOf(client).where('started_at', '<', from).orderBy('started_at', 'desc').offset(offset).limit(PRIOR_PAGE)).map(sessionOf);
     for (const s of page) if (prior.length < need && rule.eligible(s)) prior.unshift(s.meanPowerW!);
     if (page.length < PRIOR_PAGE) break;
   }
   const trendFrom = new Date(now.getTime() - POWER_TREND_WEEKS * 7 * 86_400_000);
-  const trendSessions = trendFrom >= from ? shown : (await ridesOf(ctx, client).where('started_at', '>', trendFrom).orderBy('started_at')).map(sessionOf);
+  const trendSessions = trendFrom >= from ? shown : (await ridesOf(client).where('started_at', '>', trendFrom).orderBy('started_at')).map(sessionOf);
   const trend = powerTrendPerWeek(trendSessions, now.toISOString());
-  return { sessions: trendPointsOf(h, prior), powerTrendWPerWeek: trend === null ? null : Math.round(trend * 100) / 100, thresholds: h.thresholds };
+  return { sessions: trendPointsOf(h, prior), powerTrendWPerWeek: trend === null ? null : roundTo(trend, 2), thresholds: h.thresholds };
 }
 
 const PRIOR_PAGE = 50;
 
-const ridesOf = (ctx: RequestContext, client: ClientRow) =>
-  ctx.knex<RideRow>('rides')
-    .where({ client_id: client.id })
+const ridesOf = (client: ClientGrant) =>
+  client.db<RideRow>('rides')
     .select('id', 'started_at', 'duration_s', 'active_s', 'mean_power_w', 'current_per_watt_ma_per_w');
 
 /** Which prescription a session was judged against, whether it counted, and whether its power enters the usual level. */
-function trendRule(h: Pick<ClientHistory, 'client' | 'prescriptions' | 'thresholds'>) {
+function trendRule(h: Pick<ClientHistory, 'client' | 'prescriptions' | 'pauses' | 'thresholds'>) {
   const timeline = prescriptionTimeline(h.prescriptions);
   const t = h.thresholds;
   const judge = (s: ClientHistory['sessions'][number]) => {
-    const target = timeline.versionOn(localDate(s.startedAt, h.client.time_zone));
+    const day = localDate(s.startedAt, h.client.time_zone);
+    const target = timeline.versionOn(day);
     const counted = sessionStatus(s.durationS, target, t.countThresholdPct) === 'counted';
-    return { target, counted };
+    const paused = h.pauses.some((p) => p.from <= day && day <= p.to);
+    return { target, counted, eligible: counted && !paused && s.meanPowerW !== null };
   };
-  return { judge, eligible: (s: ClientHistory['sessions'][number]) => judge(s).counted && s.meanPowerW !== null };
+  return { judge, eligible: (s: ClientHistory['sessions'][number]) => judge(s).eligible };
 }
 
 /**
@@ -89,12 +92,11 @@ function trendRule(h: Pick<ClientHistory, 'client' | 'prescriptions' | 'threshol
 export function trendPointsOf(h: ClientHistory, prior: number[] = []) {
   const t = h.thresholds;
   const rule = trendRule(h);
-  const countedPower: number[] = [...prior];
+  const eligiblePower: number[] = [...prior];
   return h.sessions.map((s) => {
-    const { target, counted } = rule.judge(s);
-    const window = countedPower.slice(-t.baselineSessions);
-    const baseline = window.length >= t.baselineMinSessions ? median(window) : null;
-    if (counted && s.meanPowerW !== null) countedPower.push(s.meanPowerW);
+    const { target, counted, eligible } = rule.judge(s);
+    if (eligible) eligiblePower.push(s.meanPowerW!);
+    const baseline = usualLevel(eligiblePower, t);
     return {
       sessionId: s.id,
       startedAt: s.startedAt,

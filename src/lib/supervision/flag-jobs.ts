@@ -1,5 +1,5 @@
 import { config } from '../config';
-import { db } from '../db/knex';
+import { workerDb } from '../data';
 import { onRidesChanged } from '../ingest/ride-events';
 import { filesInFlight } from '../ingest/sweep';
 import { QUEUES, queue, sendJob, workQueue } from '../jobs/queue';
@@ -23,8 +23,8 @@ export async function scheduleFlagEvaluation(clientId: string, delayS = config()
  */
 export async function refreshStoredWeeks(clientId: string, { always = true }: { always?: boolean } = {}): Promise<void> {
   try {
-    if (always) await refreshAdherence(db(), clientId);
-    else await refreshAdherenceIfNeeded(db(), clientId);
+    if (always) await refreshAdherence(workerDb(), clientId);
+    else await refreshAdherenceIfNeeded(workerDb(), clientId);
   } catch (err) {
     console.error(`storing the weeks of client ${clientId} failed:`, (err as Error).message);
   }
@@ -39,8 +39,8 @@ export async function registerFlagJobs(): Promise<void> {
   // Also after a change of prescription, pause or threshold, and at the
   // client's midnight, so the stored weeks reach the current one.
   await workQueue<{ clientId: string }>(QUEUES.evaluateFlags, async ({ clientId }) => {
-    if (await filesInFlight(db(), clientId)) return scheduleFlagEvaluation(clientId);
-    await evaluateClientFlags(db(), clientId);
+    if (await filesInFlight(workerDb(), clientId)) return scheduleFlagEvaluation(clientId);
+    await evaluateClientFlags(workerDb(), clientId);
     await refreshStoredWeeks(clientId, { always: false });
   });
 
@@ -52,7 +52,7 @@ export async function registerFlagJobs(): Promise<void> {
     // A page of clients at a time: the sweep's memory does not grow with the installation.
     let after = '00000000-0000-0000-0000-000000000000';
     for (;;) {
-      const clients: { id: string; time_zone: string }[] = await db()('clients').whereNull('archived_at').where('id', '>', after).orderBy('id').limit(SWEEP_PAGE).select('id', 'time_zone');
+      const clients: { id: string; time_zone: string }[] = await workerDb()('clients').whereNull('archived_at').where('id', '>', after).orderBy('id').limit(SWEEP_PAGE).select('id', 'time_zone');
       if (!clients.length) break;
       after = clients[clients.length - 1].id;
       for (const c of clientsWithNewDay(clients, now)) await scheduleFlagEvaluation(c.id, 0);

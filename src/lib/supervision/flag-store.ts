@@ -1,6 +1,6 @@
 // Applies the flag planner's changes to the stored flags, each with its
 // history event, in one transaction per client.
-import type { Knex } from 'knex';
+import { lock, type Db, type Query } from '../data/db';
 import type { ClientRow, FlagRow } from '../db/tables';
 import { planFlagChanges, SESSION_FLAG_KINDS, type ExistingFlag, type FlagChange, type FlagCondition } from '../flags';
 import { alertUrgentFlag } from '../notifications/alerts';
@@ -22,17 +22,17 @@ export function existingFlag(row: FlagRow): ExistingFlag {
 }
 
 
-async function event(trx: Knex.Transaction, flagId: string, action: string, detail: Record<string, unknown> = {}, note: string | null = null, actor: string | null = null) {
+async function event(trx: Db, flagId: string, action: string, detail: Record<string, unknown> = {}, note: string | null = null, actor: string | null = null) {
   await trx('flag_events').insert({ flag_id: flagId, action, detail: JSON.stringify(detail), note, actor_user_id: actor });
 }
 
 const conditionColumns = (c: FlagCondition) => ({ severity: c.severity, anchor: c.anchor, reason: c.reason, evidence: JSON.stringify(c.evidence) });
 
 /** Re-evaluates a client's session flags with all data as of `now`. */
-export async function evaluateClientFlags(knex: Knex, clientId: string, now = new Date()): Promise<FlagChange[]> {
+export async function evaluateClientFlags(knex: Db, clientId: string, now = new Date()): Promise<FlagChange[]> {
   const touched: { row: FlagRow; type: FlagChange['type'] }[] = [];
   const changes = await knex.transaction(async (trx) => {
-    await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`flags:${clientId}`]);
+    await lock(trx, `flags:${clientId}`);
     const client = await trx<ClientRow>('clients').where({ id: clientId }).first();
     if (!client || client.archived_at) return [];
     const history = await loadHistory(trx, client, { rules: true });
@@ -74,12 +74,12 @@ export async function evaluateClientFlags(knex: Knex, clientId: string, now = ne
  * acknowledged one.
  */
 export async function raiseCheckFlag(
-  knex: Knex,
+  knex: Db,
   p: { clientId: string; clinicId: string; kind: 'bp_rise' | 'bp_drop' | 'skin_concern'; severity: 'urgent' | 'review' | 'info'; anchor: string; reason: string; evidence: unknown },
   now = new Date(),
 ): Promise<FlagRow> {
   const result = await knex.transaction(async (trx) => {
-    await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`flags:${p.clientId}`]);
+    await lock(trx, `flags:${p.clientId}`);
     const live = await trx<FlagRow>('flags').where({ client_id: p.clientId, kind: p.kind }).whereIn('state', ['open', 'acknowledged']).first();
     const columns = { severity: p.severity, anchor: p.anchor, reason: p.reason, evidence: JSON.stringify(p.evidence) };
     if (live) {

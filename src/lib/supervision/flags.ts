@@ -1,8 +1,7 @@
-import type { Knex } from 'knex';
 import { DateTime } from 'luxon';
 import { z } from 'zod';
-import { accessClient, accessClientRecord } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope, type Db } from '../data';
 import type { FlagEventRow, FlagRow } from '../db/tables';
 import { badRequest } from '../http/errors';
 import { calendarDate, paragraph } from '../validation/fields';
@@ -35,10 +34,9 @@ export type FlagView = ReturnType<typeof flagView>;
 
 /** Acknowledge (seen, still live), resolve (closed) or snooze (hidden from triage until a date), with an optional note. */
 export async function actOnFlag(ctx: RequestContext, flagId: string, input: z.infer<typeof flagActionSchema>) {
-  const found = z.string().uuid().safeParse(flagId).success ? await ctx.knex<FlagRow>('flags').where({ id: flagId }).first() : undefined;
-  const { row: flag, client } = await accessClientRecord(ctx, found, { what: 'That flag', type: 'flag', id: flagId }, 'manage', 'flag.act', { flagId, action: input.action });
+  const { row: flag, client } = await scope(ctx).record('flag', flagId, 'manage', 'flag.act', { flagId, action: input.action });
   if (flag.state === 'resolved' || flag.state === 'withdrawn') throw badRequest(`This flag is ${flag.state} already.`);
-  const today = DateTime.now().setZone(client.time_zone).toISODate()!;
+  const today = DateTime.now().setZone(client.row.time_zone).toISODate()!;
   if (input.action === 'snooze' && input.until! <= today) {
     throw badRequest('Snooze until: choose a date after today.', { fields: [{ path: 'until', message: 'Choose a date after today.' }] });
   }
@@ -46,18 +44,18 @@ export async function actOnFlag(ctx: RequestContext, flagId: string, input: z.in
     input.action === 'acknowledge'
       ? { state: 'acknowledged' }
       : input.action === 'resolve'
-        ? { state: 'resolved', closed_at: ctx.knex.fn.now() }
+        ? { state: 'resolved', closed_at: client.db.fn.now() }
         : { snoozed_until: input.until };
-  const row = await ctx.knex.transaction(async (trx) => {
-    const [updated] = await trx<FlagRow>('flags').where({ id: flag.id }).update({ ...change, updated_at: trx.fn.now() } as never).returning('*');
-    await trx('flag_events').insert({
+  const row = await client.transaction(async (tx) => {
+    const [updated] = await tx.db<FlagRow>('flags').where({ id: flag.id }).update({ ...change, updated_at: tx.db.fn.now() } as never).returning('*');
+    await tx.db('flag_events').insert({
       flag_id: flag.id,
       actor_user_id: ctx.viewer.userId,
       action: input.action === 'acknowledge' ? 'acknowledged' : input.action === 'resolve' ? 'resolved' : 'snoozed',
       note: input.note ?? null,
       detail: JSON.stringify(input.action === 'snooze' ? { until: input.until } : {}),
     });
-    await auditAs(ctx, { action: `flag.${input.action}`, clinicId: client.clinic_id, clientId: client.id, recordType: 'flag', recordId: flag.id }, trx);
+    await tx.audit({ action: `flag.${input.action}`, recordType: 'flag', recordId: flag.id });
     return updated;
   });
   return flagView(row);
@@ -65,15 +63,15 @@ export async function actOnFlag(ctx: RequestContext, flagId: string, input: z.in
 
 /** Every flag of a client, newest first, each with its history. */
 export async function clientFlags(ctx: RequestContext, clientId: string) {
-  const client = await accessClient(ctx, clientId, 'manage', 'flags.list');
-  return { flags: await flagsWithHistory(ctx.knex, client.id) };
+  const client = await scope(ctx).client(clientId, 'manage', 'flags.list');
+  return { flags: await flagsWithHistory(client.db, client.id) };
 }
 
 /** The flags of a client the caller has already been given access to. */
-export async function flagsWithHistory(knex: Knex, clientId: string) {
-  const rows = await knex<FlagRow>('flags').where({ client_id: clientId }).orderBy('raised_at', 'desc');
+export async function flagsWithHistory(db: Db, clientId: string) {
+  const rows: FlagRow[] = await db<FlagRow>('flags').where({ client_id: clientId }).orderBy('raised_at', 'desc');
   const events = rows.length
-    ? await knex('flag_events as e').leftJoin('users as u', 'u.id', 'e.actor_user_id').whereIn('e.flag_id', rows.map((r) => r.id)).orderBy('e.id').select('e.*', 'u.name as actor_name')
+    ? await db('flag_events as e').leftJoin('users as u', 'u.id', 'e.actor_user_id').whereIn('e.flag_id', rows.map((r) => r.id)).orderBy('e.id').select('e.*', 'u.name as actor_name')
     : [];
   return rows.map((r) => ({
     ...flagView(r),

@@ -1,4 +1,4 @@
-import type { Knex } from 'knex';
+import type { Db } from '../data/db';
 import type { Pause, PrescriptionVersion } from '../adherence/types';
 import type { ClientRow, PauseRow, PrescriptionRow, RideRow } from '../db/tables';
 import { flagThresholdsSchema, type FlagInput, type FlagSession, type FlagThresholds } from '../flags';
@@ -21,8 +21,8 @@ export function activePauses(rows: PauseRow[]): Pause[] {
  * judgement and the stored weeks run for every client every day; a ride's
  * channels and warnings are the larger part of its row).
  */
-export async function loadHistory(knex: Knex, client: ClientRow, { rules = false }: { rules?: boolean } = {}): Promise<ClientHistory> {
-  return (await loadHistories(knex, [client], { rules }))[0];
+export async function loadHistory(db: Db, client: ClientRow, { rules = false }: { rules?: boolean } = {}): Promise<ClientHistory> {
+  return (await loadHistories(db, [client], { rules }))[0];
 }
 
 const RULE_COLUMNS = ['id', 'client_id', 'started_at', 'duration_s', 'mean_power_w', 'current_per_watt_ma_per_w'] as const;
@@ -31,21 +31,21 @@ const RULE_COLUMNS = ['id', 'client_id', 'started_at', 'duration_s', 'mean_power
  * The histories of several clients in four queries, whatever their number:
  * triage, the caseload and the hourly mail judge a whole clinic at once.
  */
-export async function loadHistories(knex: Knex, clients: ClientRow[], { rules = false }: { rules?: boolean } = {}): Promise<ClientHistory[]> {
+export async function loadHistories(db: Db, clients: ClientRow[], { rules = false }: { rules?: boolean } = {}): Promise<ClientHistory[]> {
   if (!clients.length) return [];
   const ids = clients.map((c) => c.id);
   // One after another, not in parallel: the flag judge passes a transaction,
   // which is one connection, and pg refuses overlapping queries on one
   // connection from its next major on.
-  const prescriptions = await knex<PrescriptionRow>('prescriptions').whereIn('client_id', ids).orderBy('version');
-  const pauses = await knex<PauseRow>('pauses').whereIn('client_id', ids).orderBy('starts_on');
-  const rides: RideRow[] = await knex<RideRow>('rides')
+  const prescriptions = await db<PrescriptionRow>('prescriptions').whereIn('client_id', ids).orderBy('version');
+  const pauses = await db<PauseRow>('pauses').whereIn('client_id', ids).orderBy('starts_on');
+  const rides: RideRow[] = await db<RideRow>('rides')
     .whereIn('client_id', ids)
     .orderBy('started_at')
     .modify((q) => {
       if (rules) q.select(RULE_COLUMNS);
     });
-  const clinics = await knex('clinics').whereIn('id', [...new Set(clients.map((c) => c.clinic_id))]).select('id', 'flag_thresholds');
+  const clinics = await db('clinics').whereIn('id', [...new Set(clients.map((c) => c.clinic_id))]).select('id', 'flag_thresholds');
   const thresholds = new Map(clinics.map((c) => [c.id as string, flagThresholdsSchema.parse(c.flag_thresholds ?? {})]));
   // Grouped once, so a clinic-wide read stays linear in its rows.
   const prescriptionsOf = byClient(prescriptions);
@@ -78,10 +78,10 @@ export function sessionOf(r: Pick<RideRow, 'id' | 'started_at' | 'duration_s' | 
 }
 
 /** A client's program without the sessions: prescriptions, pauses and the clinic's thresholds (a handful of rows). */
-export async function loadProgram(knex: Knex, client: ClientRow): Promise<Omit<ClientHistory, 'sessions'>> {
-  const prescriptions = await knex<PrescriptionRow>('prescriptions').where({ client_id: client.id }).orderBy('version');
-  const pauses = await knex<PauseRow>('pauses').where({ client_id: client.id }).orderBy('starts_on');
-  const clinic = await knex('clinics').where({ id: client.clinic_id }).first('flag_thresholds');
+export async function loadProgram(db: Db, client: ClientRow): Promise<Omit<ClientHistory, 'sessions'>> {
+  const prescriptions = await db<PrescriptionRow>('prescriptions').where({ client_id: client.id }).orderBy('version');
+  const pauses = await db<PauseRow>('pauses').where({ client_id: client.id }).orderBy('starts_on');
+  const clinic = await db('clinics').where({ id: client.clinic_id }).first('flag_thresholds');
   return {
     client,
     prescriptions: prescriptions.map((p) => ({ effectiveFrom: p.effective_from, sessionsPerWeek: p.sessions_per_week, minutesPerSession: p.minutes_per_session, row: p })),

@@ -3,7 +3,7 @@
 // on Mondays a finished week). Comparing local dates an hour apart, rather
 // than asking for local hour 0, also works where midnight does not exist on a
 // clock-change day (the day starts at 01:00) or happens twice.
-import { localDate } from '../time/iso-week';
+import { localDate } from '../time/local-date';
 
 /** The sweep runs every hour (flag-jobs.ts). */
 export const SWEEP_EVERY_MS = 3_600_000;

@@ -1,8 +1,9 @@
 // The per-client figures that triage and the caseload show: adherence, streak,
 // last session and power trend, computed from the same history the flags use.
-import type { Knex } from 'knex';
 import { computeAdherence } from '../adherence';
+import { roundTo } from '../analytics/round';
 import { powerTrendPerWeek, POWER_TREND_WEEKS } from '../analytics/trend';
+import type { Db } from '../data/db';
 import type { ClientRow } from '../db/tables';
 import { readClients } from './adherence-store';
 import type { ClientHistory } from './history';
@@ -34,7 +35,7 @@ export function overviewOf(h: ClientHistory, now: Date, weeks = 12) {
   return { overview, adherence };
 }
 
-const roundTrend = (v: number | null) => (v === null ? null : Math.round(v * 100) / 100);
+const roundTrend = (v: number | null) => (v === null ? null : roundTo(v, 2));
 
 /**
  * `overviewOf`'s figures for several clients in one query whatever their
@@ -42,8 +43,8 @@ const roundTrend = (v: number | null) => (v === null ? null : Math.round(v * 100
  * stored weeks, the last session by the (client, start) index, the power
  * trend from the sessions of its own eight weeks only.
  */
-export async function figuresOf(knex: Knex, clients: Pick<ClientRow, 'id'>[], now: Date): Promise<Map<string, ClientOverview>> {
-  const read = await readClients(knex, clients, now, 1, { sessionsSince: new Date(now.getTime() - POWER_TREND_WEEKS * 7 * 86_400_000) });
+export async function figuresOf(db: Db, clients: Pick<ClientRow, 'id'>[], now: Date): Promise<Map<string, ClientOverview>> {
+  const read = await readClients(db, clients, now, 1, { sessionsSince: new Date(now.getTime() - POWER_TREND_WEEKS * 7 * 86_400_000) });
   const out = new Map<string, ClientOverview>();
   for (const [id, r] of read) {
     out.set(id, {

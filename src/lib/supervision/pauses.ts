@@ -1,7 +1,7 @@
 import { DateTime } from 'luxon';
 import { z } from 'zod';
-import { accessClient } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
 import type { PauseRow } from '../db/tables';
 import { badRequest, notFound } from '../http/errors';
 import { scheduleFlagEvaluation } from './flag-jobs';
@@ -24,18 +24,18 @@ export function pauseView(p: PauseRow, today: string) {
 }
 
 export async function listPauses(ctx: RequestContext, clientId: string) {
-  const client = await accessClient(ctx, clientId, 'read', 'pauses.list');
-  const today = DateTime.now().setZone(client.time_zone).toISODate()!;
-  const rows = await ctx.knex<PauseRow>('pauses').where({ client_id: client.id }).orderBy('starts_on', 'desc');
+  const client = await scope(ctx).client(clientId, 'read', 'pauses.list');
+  const today = DateTime.now().setZone(client.row.time_zone).toISODate()!;
+  const rows: PauseRow[] = await client.db<PauseRow>('pauses').orderBy('starts_on', 'desc');
   return { pauses: rows.map((p) => pauseView(p, today)) };
 }
 
 export async function createPause(ctx: RequestContext, clientId: string, input: z.infer<typeof pauseInputSchema>) {
-  const client = await accessClient(ctx, clientId, 'manage', 'pause.create');
-  const [row] = await ctx.knex<PauseRow>('pauses').insert({ client_id: client.id, starts_on: input.from, ends_on: input.to, reason: input.reason, created_by: ctx.viewer.userId }).returning('*');
-  await auditAs(ctx, { action: 'pause.create', clinicId: client.clinic_id, clientId: client.id, recordType: 'pause', recordId: row.id, detail: { from: input.from, to: input.to } });
+  const client = await scope(ctx).client(clientId, 'manage', 'pause.create');
+  const [row] = await client.db<PauseRow>('pauses').insert({ starts_on: input.from, ends_on: input.to, reason: input.reason, created_by: ctx.viewer.userId }).returning('*');
+  await client.audit({ action: 'pause.create', recordType: 'pause', recordId: row.id, detail: { from: input.from, to: input.to } });
   await scheduleFlagEvaluation(client.id, 0);
-  return pauseView(row, DateTime.now().setZone(client.time_zone).toISODate()!);
+  return pauseView(row, DateTime.now().setZone(client.row.time_zone).toISODate()!);
 }
 
 /**
@@ -43,17 +43,17 @@ export async function createPause(ctx: RequestContext, clientId: string, input: 
  * that has not begun is cancelled. Nothing is deleted.
  */
 export async function endPause(ctx: RequestContext, clientId: string, pauseId: string) {
-  const client = await accessClient(ctx, clientId, 'manage', 'pause.end');
-  const row = z.string().uuid().safeParse(pauseId).success ? await ctx.knex<PauseRow>('pauses').where({ id: pauseId, client_id: client.id }).first() : undefined;
+  const client = await scope(ctx).client(clientId, 'manage', 'pause.end');
+  const row: PauseRow | undefined = z.string().uuid().safeParse(pauseId).success ? await client.db<PauseRow>('pauses').where({ id: pauseId }).first() : undefined;
   if (!row) throw notFound('That pause');
-  const today = DateTime.now().setZone(client.time_zone);
+  const today = DateTime.now().setZone(client.row.time_zone);
   const state = pauseState(row, today.toISODate()!);
   if (state === 'ended' || state === 'cancelled') throw badRequest('This pause is over already.');
   const change = state === 'upcoming' || row.starts_on === today.toISODate()
-    ? { cancelled_at: ctx.knex.fn.now() }
+    ? { cancelled_at: client.db.fn.now() }
     : { ends_on: today.minus({ days: 1 }).toISODate()! };
-  const [updated] = await ctx.knex<PauseRow>('pauses').where({ id: row.id }).update({ ...change, ended_at: ctx.knex.fn.now(), ended_by: ctx.viewer.userId } as never).returning('*');
-  await auditAs(ctx, { action: 'pause.end', clinicId: client.clinic_id, clientId: client.id, recordType: 'pause', recordId: row.id });
+  const [updated] = await client.db<PauseRow>('pauses').where({ id: row.id }).update({ ...change, ended_at: client.db.fn.now(), ended_by: ctx.viewer.userId } as never).returning('*');
+  await client.audit({ action: 'pause.end', recordType: 'pause', recordId: row.id });
   await scheduleFlagEvaluation(client.id, 0);
   return pauseView(updated, today.toISODate()!);
 }

@@ -4,6 +4,7 @@
 // 200–500 µs, current up to 180 mA, frequency 20–60 Hz. Warm-up, tolerance and
 // resistance limits are Kinloop's own plausibility bounds.
 import { z } from 'zod';
+import type { PrescriptionRow } from '../db/tables';
 import { NAMED_CHANNELS, NUMBERED_CHANNELS } from '../rides/types';
 import { calendarDate, paragraph } from '../validation/fields';
 
@@ -50,3 +51,27 @@ export const prescriptionInputSchema = z
     path: ['warmupMinutes'],
   });
 export type PrescriptionInput = z.infer<typeof prescriptionInputSchema>;
+
+type Stored = Pick<PrescriptionRow, 'sessions_per_week' | 'minutes_per_session' | 'warmup_minutes' | 'target_cadence_rpm' | 'cadence_tolerance_rpm' | 'resistance' | 'channels' | 'notes'>;
+
+const channelKey = (channels: Record<string, Partial<Record<string, number>>> | undefined) =>
+  JSON.stringify(
+    Object.entries(channels ?? {})
+      .map(([name, l]) => [name, ['maxCurrentMa', 'pulseWidthUs', 'frequencyHz'].map((f) => l[f] ?? null)])
+      .sort(([a], [b]) => String(a).localeCompare(String(b))),
+  );
+
+/** True when a new version would hold exactly what `stored` holds: a version that changes nothing is refused. */
+export function sameAsStored(input: PrescriptionInput, stored: Stored): boolean {
+  const num = (v: unknown) => (v === null || v === undefined ? null : Number(v));
+  return (
+    input.sessionsPerWeek === num(stored.sessions_per_week) &&
+    input.minutesPerSession === num(stored.minutes_per_session) &&
+    (input.warmupMinutes ?? null) === num(stored.warmup_minutes) &&
+    (input.targetCadenceRpm ?? null) === num(stored.target_cadence_rpm) &&
+    (input.cadenceToleranceRpm ?? null) === num(stored.cadence_tolerance_rpm) &&
+    (input.resistance ?? null) === num(stored.resistance) &&
+    channelKey(input.channels) === channelKey(stored.channels as Record<string, Partial<Record<string, number>>>) &&
+    (input.notes ?? '') === (stored.notes ?? '')
+  );
+}

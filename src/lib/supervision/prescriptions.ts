@@ -1,10 +1,10 @@
-import type { Knex } from 'knex';
-import { accessClient } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope, type Db } from '../data';
 import type { PrescriptionRow } from '../db/tables';
-import { badRequest } from '../http/errors';
+import { badRequest, conflict } from '../http/errors';
+import { localDate } from '../time/local-date';
 import { scheduleFlagEvaluation } from './flag-jobs';
-import type { PrescriptionInput } from './prescription-rules';
+import { sameAsStored, type PrescriptionInput } from './prescription-rules';
 
 export function prescriptionView(row: PrescriptionRow & { created_by_name?: string }) {
   return {
@@ -26,18 +26,19 @@ export function prescriptionView(row: PrescriptionRow & { created_by_name?: stri
 export type PrescriptionView = ReturnType<typeof prescriptionView>;
 
 /** Every version of a client's prescription with its author, newest first. */
-export async function prescriptionVersions(knex: Knex, clientId: string) {
-  return knex('prescriptions as p')
+export async function prescriptionVersions(db: Db, clientId: string) {
+  return db('prescriptions as p')
     .join('users as u', 'u.id', 'p.created_by')
     .where('p.client_id', clientId)
     .orderBy('p.version', 'desc')
     .select('p.*', 'u.name as created_by_name');
 }
 
-/** The prescription in effect today (or the newest, when all start later) and every version, newest first. */
-export async function readPrescription(ctx: RequestContext, clientId: string, today: string) {
-  const client = await accessClient(ctx, clientId, 'read', 'prescription.view');
-  const rows = await prescriptionVersions(ctx.knex, client.id);
+/** The prescription in effect on `today` (by default the client's today; or the newest, when all start later) and every version, newest first. */
+export async function readPrescription(ctx: RequestContext, clientId: string, today?: string) {
+  const client = await scope(ctx).client(clientId, 'read', 'prescription.view');
+  today ??= localDate(new Date(), client.row.time_zone);
+  const rows = await prescriptionVersions(client.db, client.id);
   const current = rows.find((r) => r.effective_from <= today) ?? null;
   const upcoming = rows.filter((r) => r.effective_from > today);
   return {
@@ -49,18 +50,20 @@ export async function readPrescription(ctx: RequestContext, clientId: string, to
 
 /** Saving always creates a new version; earlier versions stay as they were. */
 export async function savePrescription(ctx: RequestContext, clientId: string, input: PrescriptionInput) {
-  const client = await accessClient(ctx, clientId, 'manage', 'prescription.change');
-  const row = await ctx.knex.transaction(async (trx) => {
-    await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`prescription:${client.id}`]);
-    const latest = await trx<PrescriptionRow>('prescriptions').where({ client_id: client.id }).orderBy('version', 'desc').first();
+  const client = await scope(ctx).client(clientId, 'manage', 'prescription.change');
+  const row = await client.transaction(async (tx) => {
+    await tx.lock(`prescription:${client.id}`);
+    const latest: PrescriptionRow | undefined = await tx.db<PrescriptionRow>('prescriptions').orderBy('version', 'desc').first();
     if (latest && input.effectiveFrom < latest.effective_from) {
       throw badRequest(`Effective date: the new version cannot start before the current one (${latest.effective_from}).`, {
         fields: [{ path: 'effectiveFrom', message: `Choose ${latest.effective_from} or later.` }],
       });
     }
-    const [created] = await trx<PrescriptionRow>('prescriptions')
+    if (latest && sameAsStored(input, latest)) {
+      throw conflict('unchanged', `Nothing differs from version ${latest.version}: change at least one value before saving a new version.`);
+    }
+    const [created] = await tx.db<PrescriptionRow>('prescriptions')
       .insert({
-        client_id: client.id,
         version: (latest?.version ?? 0) + 1,
         effective_from: input.effectiveFrom,
         sessions_per_week: input.sessionsPerWeek,
@@ -74,7 +77,7 @@ export async function savePrescription(ctx: RequestContext, clientId: string, in
         created_by: ctx.viewer.userId,
       })
       .returning('*');
-    await auditAs(ctx, { action: 'prescription.version_created', clinicId: client.clinic_id, clientId: client.id, recordType: 'prescription', recordId: created.id, detail: { version: created.version } }, trx);
+    await tx.audit({ action: 'prescription.version_created', recordType: 'prescription', recordId: created.id, detail: { version: created.version } });
     return created;
   });
   await scheduleFlagEvaluation(client.id, 0);

@@ -1,6 +1,8 @@
-import { staffClinic } from '../auth/access';
-import { auditAs, type RequestContext } from '../auth/context';
+import type { RequestContext } from '../auth/context';
+import { scope } from '../data';
 import { DEFAULT_FLAG_THRESHOLDS, flagThresholdsSchema, type FlagThresholds } from '../flags';
+import { z } from 'zod';
+import { defaultLocaleFor, isSupportedLocale } from '../time/locale';
 import { scheduleFlagEvaluation } from './flag-jobs';
 
 // Kinloop's plausibility limits for the thresholds that have no upper bound of
@@ -21,16 +23,42 @@ export const clinicSettingsInputSchema = flagThresholdsSchema.superRefine((t, ct
 });
 
 export async function readClinicSettings(ctx: RequestContext, clinicId?: string) {
-  const id = staffClinic(ctx.viewer, ['admin', 'therapist'], clinicId);
-  const clinic = await ctx.knex('clinics').where({ id }).first('id', 'name', 'time_zone', 'flag_thresholds');
-  return { clinicId: clinic.id, name: clinic.name, timeZone: clinic.time_zone, flagThresholds: flagThresholdsSchema.parse(clinic.flag_thresholds), defaults: DEFAULT_FLAG_THRESHOLDS };
+  const clinic = await scope(ctx).clinic(['admin', 'therapist'], clinicId).clinic();
+  return {
+    clinicId: clinic.id,
+    name: clinic.name,
+    timeZone: clinic.time_zone,
+    /** The clinic's own choice, or null for the default from its time zone. */
+    locale: clinic.locale,
+    defaultLocale: defaultLocaleFor(clinic.time_zone),
+    flagThresholds: flagThresholdsSchema.parse(clinic.flag_thresholds),
+    defaults: DEFAULT_FLAG_THRESHOLDS,
+  };
+}
+
+export const clinicLocaleSchema = z
+  .object({
+    locale: z
+      .string()
+      .max(35)
+      .refine(isSupportedLocale, { message: 'Date format: choose one of the listed languages and regions (a BCP 47 tag such as en-GB).' })
+      .nullable(),
+  })
+  .strict();
+
+/** The locale the clinic's dates and numbers are written in (admins); null goes back to the default from its time zone. */
+export async function saveClinicLocale(ctx: RequestContext, locale: string | null, clinicId?: string) {
+  const clinic = scope(ctx).clinic(['admin'], clinicId);
+  await clinic.db('clinics').update({ locale });
+  await clinic.audit({ action: 'clinic.settings_change', detail: { locale } });
+  return readClinicSettings(ctx, clinic.id);
 }
 
 /** Changes the clinic's flag thresholds (admins); every client is judged again with them. */
 export async function saveClinicSettings(ctx: RequestContext, thresholds: FlagThresholds, clinicId?: string) {
-  const id = staffClinic(ctx.viewer, ['admin'], clinicId);
-  await ctx.knex('clinics').where({ id }).update({ flag_thresholds: JSON.stringify(thresholds) });
-  await auditAs(ctx, { action: 'clinic.settings_change', clinicId: id, detail: { flagThresholds: thresholds } });
-  for (const c of await ctx.knex('clients').where({ clinic_id: id }).whereNull('archived_at').select('id')) await scheduleFlagEvaluation(c.id, 0);
-  return readClinicSettings(ctx, id);
+  const clinic = scope(ctx).clinic(['admin'], clinicId);
+  await clinic.db('clinics').update({ flag_thresholds: JSON.stringify(thresholds) });
+  await clinic.audit({ action: 'clinic.settings_change', detail: { flagThresholds: thresholds } });
+  for (const c of await clinic.db('clients').select('id')) await scheduleFlagEvaluation(c.id, 0);
+  return readClinicSettings(ctx, clinic.id);
 }

@@ -1,8 +1,7 @@
 // ISO 8601 weeks (Monday first; week 1 holds the year's first Thursday) of
 // dates in a client's time zone. A session belongs to the week of its local
 // start date, so every week computation starts from the local calendar date.
-import { DateTime } from 'luxon';
-import { addDays, daysFrom, isLocalDate, isoWeekday } from './local-date';
+import { addDays, daysFrom, isLocalDate, isoWeekday, localDate } from './local-date';
 
 export interface IsoWeek {
   /** e.g. '2026-W41' */
@@ -15,18 +14,6 @@ export interface IsoWeek {
 }
 
 const WEEK_KEY = /^(\d{4})-W(\d{2})$/;
-
-/** The local calendar date ('YYYY-MM-DD') of an instant in `timeZone`. */
-export function localDate(instant: string | Date, timeZone: string): string {
-  const zoned =
-    instant instanceof Date
-      ? DateTime.fromJSDate(instant, { zone: timeZone })
-      : DateTime.fromISO(instant, { zone: timeZone });
-  if (!zoned.isValid) {
-    throw new RangeError(`Not a valid instant or time zone: ${String(instant)} in ${timeZone}`);
-  }
-  return zoned.toISODate()!;
-}
 
 /**
  * The ISO week of an instant (taken in `timeZone`) or of a local date
@@ -54,6 +41,11 @@ function weekOfLocalDate(date: string): IsoWeek {
     monday,
     sunday: addDays(monday, 6),
   };
+}
+
+/** The ISO week key ('2026-W41') of a local date. */
+export function isoWeekKey(date: string): string {
+  return weekOfLocalDate(date).isoWeek;
 }
 
 /** Parses a week key such as '2026-W41'. */

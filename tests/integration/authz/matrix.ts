@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { formFor, rideCsv, uploadAndWait } from '../../support/rides';
-import type { Role, World } from '../../support/world';
+import { ROLES, type Role, type World } from '../../support/world';
 
 /** One accepted ride of the world's client, uploaded by its carer; made once per run. */
 let ride: Promise<{ uploadId: string; sessionId: string }> | null = null;
@@ -117,7 +117,8 @@ export const MATRIX: Record<string, MatrixEntry> = {
   },
   'GET /api/clients/[id]/prescription': { request: (w) => ({ path: `/api/clients/${w.clientId}/prescription` }), expect: read(200) },
   'PUT /api/clients/[id]/prescription': {
-    request: (w) => ({ path: `/api/clients/${w.clientId}/prescription`, body: { sessionsPerWeek: 3, minutesPerSession: 30, effectiveFrom: '2026-06-01' } }),
+    // A version that changes nothing is refused (409), so each caller saves a different one.
+    request: (w, role) => ({ path: `/api/clients/${w.clientId}/prescription`, body: { sessionsPerWeek: 3, minutesPerSession: 20 + ROLES.indexOf(role), effectiveFrom: '2026-06-01' } }),
     expect: manage(201),
   },
   'GET /api/clients/[id]/pauses': { request: (w) => ({ path: `/api/clients/${w.clientId}/pauses` }), expect: read(200) },
@@ -153,6 +154,7 @@ export const MATRIX: Record<string, MatrixEntry> = {
   'GET /api/caseload': { request: () => ({ path: '/api/caseload' }), expect: staff(200) },
   'GET /api/clinic/settings': { request: () => ({ path: '/api/clinic/settings' }), expect: staff(200) },
   'PUT /api/clinic/settings': { request: () => ({ path: '/api/clinic/settings', body: {} }), expect: adminOnly(200) },
+  'PATCH /api/clinic/settings': { request: () => ({ path: '/api/clinic/settings', body: { locale: null } }), expect: adminOnly(200) },
   'PATCH /api/clients/[id]': { request: (w) => ({ path: `/api/clients/${w.clientId}`, body: { baselineSystolic: 112 } }), expect: manage(200) },
   'GET /api/clients/[id]/week': { request: (w) => ({ path: `/api/clients/${w.clientId}/week` }), expect: read(200) },
   'GET /api/clients/[id]/progress': { request: (w) => ({ path: `/api/clients/${w.clientId}/progress` }), expect: read(200) },

@@ -16,7 +16,7 @@ describe('evaluateSessionFlags', () => {
       const [flag, ...rest] = evaluateSessionFlags(flagInput({ sessions }));
       expect(rest).toEqual([]);
       expect(flag).toMatchObject({ kind: 'missed_sessions', severity: 'review', anchor: '2026-W41' });
-      expect(flag.reason).toBe('Only 2 of the 3 prescribed sessions counted in week 2026-W41 (2026-10-05 to 2026-10-11).');
+      expect(flag.reason).toBe('Only 2 of the 3 prescribed sessions counted in the week of 5 October.');
       expect(flag.evidence).toEqual({
         rule: 'missed_week',
         isoWeek: '2026-W41',
@@ -51,7 +51,7 @@ describe('evaluateSessionFlags', () => {
         kind: 'missed_sessions',
         severity: 'urgent',
         anchor: 'gap:s-2026-10-02-1000',
-        reason: 'No session for 11 days since the last one on 2026-10-02.',
+        reason: 'No session for 11 days since the last one on Friday 2 October.',
         evidence: { rule: 'no_session', since: '2026-10-02', lastSessionId: 's-2026-10-02-1000', days: 11, pausedDays: 0, limitDays: 10 },
       });
       // 2026-10-03 … 2026-10-11 are 9 days; W40 (the last finished week) was met.
@@ -71,7 +71,7 @@ describe('evaluateSessionFlags', () => {
       const later = evaluateSessionFlags(flagInput({ sessions, pauses, now: at('2026-10-18', '09:00', ZONE) }));
       expect(later[0]).toMatchObject({
         severity: 'urgent',
-        reason: 'No session for 11 days (5 paused days not counted) since the last one on 2026-10-02.',
+        reason: 'No session for 11 days (5 paused days not counted) since the last one on Friday 2 October.',
       });
     });
 
@@ -83,7 +83,7 @@ describe('evaluateSessionFlags', () => {
           kind: 'missed_sessions',
           severity: 'urgent',
           anchor: 'gap:start:2026-10-01',
-          reason: 'No session in the 12 days since the program started on 2026-10-01.',
+          reason: 'No session in the 12 days since the program started on Thursday 1 October.',
         }),
       ]);
     });
@@ -174,7 +174,7 @@ describe('evaluateSessionFlags', () => {
       const flags = evaluateSessionFlags(flagInput({ sessions }));
       expect(flags).toHaveLength(1);
       expect(flags[0]).toMatchObject({ kind: 'short_session', severity: 'info', anchor: WED });
-      expect(flags[0].reason).toBe('2 of the last 3 sessions were shorter than 80 % of the prescribed time (20 of 30 and 14.5 of 30 minutes).');
+      expect(flags[0].reason).toBe('2 of the last 3 sessions were shorter than 80 % of the prescribed time (20 min of 30 min and 14.5 min of 30 min).');
       expect(flags[0].evidence).toMatchObject({ shortSessionIds: [MON, WED], countThresholdPct: 80 });
     });
 

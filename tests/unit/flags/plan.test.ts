@@ -69,7 +69,7 @@ describe('planFlagChanges', () => {
         type: 'withdraw',
         flagId: raised[0].id,
         why:
-          'With the files now in, this never held while the flag was open: when it was raised, week 2026-W41 had 3 of the 3 prescribed sessions counted, and the latest session was on 2026-10-14.',
+          'With the files now in, this never held while the flag was open: when it was raised, the week of 5 October had 3 of the 3 prescribed sessions counted, and the latest session was on Wednesday 14 October.',
       },
     ]);
     expect(flags[0].state).toBe('withdrawn');

@@ -20,7 +20,7 @@ describe('the invitation e-mail', () => {
   });
 
   it('says when the link stops working in the clinic’s time, naming the zone', () => {
-    expect(invitationEmail({ ...base, role: 'therapist' }).text).toContain('until Wednesday, 9 December 2026 at 04:27 (Europe/London time).');
-    expect(invitationEmail({ ...base, role: 'therapist', timeZone: 'America/Chicago' }).text).toContain('until Tuesday, 8 December 2026 at 22:27 (America/Chicago time).');
+    expect(invitationEmail({ ...base, role: 'therapist' }).text).toContain('until Wednesday, 9 December 2026, 04:27 (Europe/London time).');
+    expect(invitationEmail({ ...base, role: 'therapist', timeZone: 'America/Chicago' }).text).toContain('until Tuesday, 8 December 2026, 22:27 (America/Chicago time).');
   });
 });

@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { DateTime } from 'luxon';
 import { nextSessionDue, type NextSessionInput } from '../../../src/lib/rider/next-session';
-import { isoWeekLabel } from '../../../src/lib/rider/calendar';
+import { isoWeekKey } from '../../../src/lib/time/iso-week';
 
 const NZ = 'Pacific/Auckland';
 // Local noon in Auckland on a date, as an instant.
@@ -55,7 +55,7 @@ describe('nextSessionDue', () => {
     // (from memory: NZDT, UTC+13, from the last Sunday of September).
     const now = '2026-10-04T11:30:00Z';
     const lastSessionAt = '2026-10-04T05:00:00Z'; // Sunday 18:00 in Auckland
-    expect(isoWeekLabel('2026-10-05')).toBe('2026-W41');
+    expect(isoWeekKey('2026-10-05')).toBe('2026-W41');
     const r = due({ now, countedThisWeek: 0, lastSessionAt });
     expect(r).toEqual({ dueLocalDate: '2026-10-06', reason: 'due', remainingThisWeek: 3 });
   });

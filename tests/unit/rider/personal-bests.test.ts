@@ -27,6 +27,19 @@ describe('personalBests', () => {
     expect(r.mostDistanceWeek).toEqual({ isoWeek: '2026-W42', monday: '2026-10-12', distanceM: 7500, sessions: 2 });
   });
 
+  it('leaves out sessions too short to count', () => {
+    const r = personalBests(
+      [
+        { ...ride('short', '2026-10-05T01:00:00Z', 2400, 80, 9000), counted: false },
+        { ...ride('full', '2026-10-07T01:00:00Z', 1800, 35.5, 4000), counted: true },
+      ],
+      'Europe/London',
+    );
+    expect(r.longestActive?.sessionId).toBe('full');
+    expect(r.highestPower5s?.sessionId).toBe('full');
+    expect(r.mostDistanceWeek).toEqual({ isoWeek: '2026-W41', monday: '2026-10-05', distanceM: 4000, sessions: 1 });
+  });
+
   it('keeps the earlier ride on a tie', () => {
     const r = personalBests(
       [ride('late', '2026-10-09T01:00:00Z', 1800, 40, 1000), ride('early', '2026-10-06T01:00:00Z', 1800, 40, 1000)],

@@ -18,17 +18,17 @@ function rides(from: string, n: number, activeMin: number, powerW: number | null
 describe('progressLine', () => {
   it('reports a rise in active minutes', () => {
     const line = progressLine([...rides('2026-03-03', 8, 12, 8), ...rides('2026-06-05', 10, 24, 8)], START, NOW, TZ);
-    expect(line).toBe('Over the past month your rides averaged 24 active minutes, up from 12 in your first month.');
+    expect(line).toBe('Over the past month your sessions averaged 24 active minutes, up from 12 in your first month.');
   });
 
   it('falls back to a rise in mean power when minutes are steady', () => {
     const line = progressLine([...rides('2026-03-03', 8, 30, 9), ...rides('2026-06-05', 10, 30, 18)], START, NOW, TZ);
-    expect(line).toBe('Over the past month your rides averaged 18 watts of power, up from 9 in your first month.');
+    expect(line).toBe('Over the past month your sessions averaged 18 watts of power, up from 9 in your first month.');
   });
 
   it('says "about the same" when nothing rose', () => {
     const line = progressLine([...rides('2026-03-03', 8, 30, 20), ...rides('2026-06-05', 10, 30, 20)], START, NOW, TZ);
-    expect(line).toBe('Over the past month your rides averaged 30 active minutes, about the same as in your first month.');
+    expect(line).toBe('Over the past month your sessions averaged 30 active minutes, about the same as in your first month.');
   });
 
   it('states the rides completed, without judging, when both fell', () => {
@@ -38,7 +38,7 @@ describe('progressLine', () => {
       NOW,
       TZ,
     );
-    expect(line).toBe('You have completed 23 rides since your program started.');
+    expect(line).toBe('You have completed 23 sessions since your program started.');
   });
 
   it('prefers a power gain over stating a fall in minutes', () => {
@@ -59,6 +59,6 @@ describe('progressLine', () => {
 
   it('uses the singular for one minute', () => {
     const line = progressLine([...rides('2026-03-03', 3, 1, null), ...rides('2026-06-05', 3, 1, null)], START, NOW, TZ);
-    expect(line).toBe('Over the past month your rides averaged 1 active minute, about the same as in your first month.');
+    expect(line).toBe('Over the past month your sessions averaged 1 active minute, about the same as in your first month.');
   });
 });

@@ -8,8 +8,8 @@ function reminder(partial: Partial<ReminderInput>) {
   return reminderDue({
     timeZone: NZ,
     now: '2026-10-05T05:30:00Z', // 18:30 in Auckland
+    eveningHour: 18,
     nextDue: '2026-10-05',
-    lastReminderSentAt: null,
     sessionsToday: 0,
     ...partial,
   });
@@ -32,15 +32,14 @@ describe('reminderDue', () => {
     expect(reminder({ nextDue: null })).toBe(false);
   });
 
-  it('fires at most once per local day', () => {
-    // 00:30 on Monday in Auckland, though still Sunday in UTC: same local day.
-    expect(reminder({ lastReminderSentAt: '2026-10-04T11:30:00Z' })).toBe(false);
-    // 23:30 on Sunday in Auckland: the day before.
-    expect(reminder({ lastReminderSentAt: '2026-10-04T10:30:00Z' })).toBe(true);
+  it('takes "today" in the client’s zone, not in UTC', () => {
+    // 00:30 on Tuesday 6 October in Auckland is still Monday 11:30 in UTC: Monday's reminder is over.
+    expect(reminder({ now: '2026-10-05T11:30:00Z' })).toBe(false);
+    expect(reminder({ now: '2026-10-05T11:30:00Z', nextDue: '2026-10-06' })).toBe(false);
   });
 
   it('follows London time over the end of summer time', () => {
-    const base = { timeZone: 'Europe/London', lastReminderSentAt: null, sessionsToday: 0 };
+    const base = { timeZone: 'Europe/London', eveningHour: 18, sessionsToday: 0 };
     // 17:30 UTC is 18:30 BST on Saturday 24 October, but 17:30 GMT on Sunday 25 October
     // (from memory: UK summer time ends on the last Sunday of October).
     expect(reminderDue({ ...base, now: '2026-10-24T17:30:00Z', nextDue: '2026-10-24' })).toBe(true);

@@ -2,8 +2,10 @@
 // PRODUCT.md ("Canonical ride metrics").
 
 import { describe, expect, it } from 'vitest';
-import { deltas, median } from '../../../src/lib/rides/deltas';
-import { roundTo, summarise } from '../../../src/lib/rides/metrics';
+import { median } from '../../../src/lib/analytics/median';
+import { deltas } from '../../../src/lib/rides/deltas';
+import { roundTo } from '../../../src/lib/analytics/round';
+import { summarise } from '../../../src/lib/rides/metrics';
 import type { Phase, RideSeries } from '../../../src/lib/rides/types';
 
 const f64 = (xs: number[]) => Float64Array.from(xs);

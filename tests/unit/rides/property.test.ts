@@ -6,7 +6,7 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { roundTo } from '../../../src/lib/rides/metrics';
+import { roundTo } from '../../../src/lib/analytics/round';
 import { parseRide } from '../../../src/lib/rides/parse';
 import type { ParsedRide, ParseOptions, RefusalCode, RideRefusal } from '../../../src/lib/rides/types';
 

@@ -1,17 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { getISOWeek, getISOWeekYear, format, addDays as fnsAddDays } from 'date-fns';
 import { tz, TZDate } from '@date-fns/tz';
-import {
-  addWeeks,
-  datesOfWeek,
-  isoWeekOf,
-  localDate,
-  nextWeek,
-  parseIsoWeek,
-  previousWeek,
-  weeksEndingAt,
-} from '../../../src/lib/time/iso-week';
-import { addDays, startOfLocalDay } from '../../../src/lib/time/local-date';
+import { addWeeks, datesOfWeek, isoWeekOf, nextWeek, parseIsoWeek, previousWeek, weeksEndingAt } from '../../../src/lib/time/iso-week';
+import { addDays, localDate } from '../../../src/lib/time/local-date';
+import { startOfLocalDay } from '../../../src/lib/time/zoned';
 
 describe('isoWeekOf on local dates', () => {
   // source: ISO 8601 week dates, as listed in /work/shared/PRODUCT.md

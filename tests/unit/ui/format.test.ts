@@ -7,11 +7,10 @@ import {
   minutes,
   number,
   PHASE_LABELS,
-  requestLocale,
   sessionDateTime,
   withUnit,
 } from '../../../src/components/rides/format';
-import { inZone } from './time-zone';
+import { inZone } from '../time/runtime-zone';
 
 describe('number', () => {
   it('shows missing, NaN and infinite values as a dash', () => {
@@ -54,16 +53,18 @@ describe('withUnit', () => {
 });
 
 describe('minutes', () => {
-  it('keeps one decimal below ten minutes only where there is a fraction', () => {
+  it('keeps one decimal only where there is a fraction', () => {
     expect(minutes(90, 'en-GB')).toBe('1.5 min');
     expect(minutes(45, 'en-GB')).toBe('0.8 min');
     expect(minutes(300, 'en-GB')).toBe('5 min');
+    expect(minutes(600, 'en-GB')).toBe('10 min');
   });
 
-  it('shows whole minutes from ten minutes on', () => {
-    expect(minutes(600, 'en-GB')).toBe('10 min');
-    expect(minutes(610, 'en-GB')).toBe('10 min');
-    expect(minutes(1830, 'en-GB')).toBe('31 min');
+  // A session that counts from 24 minutes must not read "24 min" at 23.9 (1434 s).
+  it('keeps the decimal above ten minutes too, rounding half away from zero', () => {
+    expect(minutes(1434, 'en-GB')).toBe('23.9 min');
+    expect(minutes(1830, 'en-GB')).toBe('30.5 min');
+    expect(minutes(1794, 'en-GB')).toBe('29.9 min');
   });
 
   // from memory (CLDR): German writes a decimal comma.
@@ -119,12 +120,13 @@ describe('distance', () => {
     expect(distance(999, 'en-GB')).toBe('999 m');
   });
 
-  // from memory (CLDR): en-GB 1,500.00 and de-DE 12,34.
-  it('gives kilometres with two decimals from a kilometre on', () => {
-    expect(distance(1000, 'en-GB')).toBe('1.00 km');
-    expect(distance(12_340, 'en-GB')).toBe('12.34 km');
-    expect(distance(12_340, 'de-DE')).toBe('12,34 km');
-    expect(distance(1_500_000, 'en-GB')).toBe('1,500.00 km');
+  // from memory (CLDR): en-GB 1,500.0 and de-DE 12,3.
+  it('gives kilometres with one decimal from a kilometre on, the same as the goal and the e-mails', () => {
+    expect(distance(1000, 'en-GB')).toBe('1.0 km');
+    expect(distance(12_340, 'en-GB')).toBe('12.3 km');
+    expect(distance(12_350, 'en-GB')).toBe('12.4 km');
+    expect(distance(12_340, 'de-DE')).toBe('12,3 km');
+    expect(distance(1_500_000, 'en-GB')).toBe('1,500.0 km');
   });
 
   it('shows a missing distance as a dash', () => {
@@ -133,9 +135,9 @@ describe('distance', () => {
   });
 
   // Same boundary slip as duration: 999.6 m is below a kilometre, so it is
-  // rounded to whole metres and reads "1,000 m" instead of "1.00 km".
+  // rounded to whole metres and reads "1,000 m" instead of "1.0 km".
   it('never shows "1,000 m"', () => {
-    expect(distance(999.6, 'en-GB')).toBe('1.00 km');
+    expect(distance(999.6, 'en-GB')).toBe('1.0 km');
   });
 });
 
@@ -164,7 +166,7 @@ describe('channelLabel and PHASE_LABELS', () => {
   });
 
   it('names the three phases', () => {
-    expect(PHASE_LABELS).toEqual({ passive: 'Passive', active: 'Active', cooldown: 'Cool-down' });
+    expect(PHASE_LABELS).toEqual({ passive: 'Warm-up', active: 'Active', cooldown: 'Cool-down' });
   });
 });
 
@@ -215,40 +217,5 @@ describe('sessionDateTime', () => {
     expect(text).toContain('Sunday');
     expect(text).toContain('4 October 2026');
     expect(text).toContain('22:30');
-  });
-});
-
-describe('requestLocale', () => {
-  it('takes the first language of the header', () => {
-    expect(requestLocale('fr-CH, fr;q=0.9, en;q=0.8')).toBe('fr-CH');
-    expect(requestLocale('de;q=0.9')).toBe('de');
-    expect(requestLocale('  en-US  ,en;q=0.5')).toBe('en-US');
-  });
-
-  it('returns the canonical spelling of the tag', () => {
-    expect(requestLocale('EN-gb')).toBe('en-GB');
-    expect(requestLocale('de-de')).toBe('de-DE');
-  });
-
-  it('falls back to British English without a usable language', () => {
-    expect(requestLocale(null)).toBe('en-GB');
-    expect(requestLocale('')).toBe('en-GB');
-    expect(requestLocale('*')).toBe('en-GB');
-    expect(requestLocale(', de')).toBe('en-GB');
-  });
-
-  it('falls back to British English for a malformed tag instead of throwing', () => {
-    expect(requestLocale('en_US')).toBe('en-GB');
-    expect(requestLocale('x-private')).toBe('en-GB');
-  });
-
-  it('falls back to British English for a language Intl does not know', () => {
-    expect(requestLocale('zz')).toBe('en-GB');
-  });
-
-  it('gives a locale the formatters accept', () => {
-    const locale = requestLocale('nl-BE,nl;q=0.9');
-    expect(() => sessionDateTime('2026-10-05T09:30:00Z', locale, 'Europe/Brussels')).not.toThrow();
-    expect(number(1.5, 1, locale)).toBe('1,5');
   });
 });

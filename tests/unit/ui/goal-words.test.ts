@@ -1,5 +1,6 @@
 import { describe, it, expect } from 'vitest';
-import { km, nextMilestoneText, percent, remainingText, travelledText } from '../../../src/components/rider/goal-words';
+import { km, nextMilestoneText, percent, remainingText, routeEnds, travelledText } from '../../../src/components/rider/goal-words';
+import { BUILTIN_ROUTES } from '../../../src/lib/goals/builtin-routes';
 import type { GoalProgress } from '../../../src/components/rider/types';
 
 function progress(travelledM: number, totalM: number, next: GoalProgress['next'] = null): GoalProgress {
@@ -92,5 +93,22 @@ describe('remainingText', () => {
 
   it('never gives a negative distance left', () => {
     expect(remainingText({ ...progress(60_000, 50_000), finished: false }, 'en-GB')).toBe('0.0 km left to the finish.');
+  });
+});
+
+describe('routeEnds', () => {
+  it('says a route that comes back to where it started is a round trip, not "from X to Back at X"', () => {
+    // The Lake Constance route starts and ends at Konstanz harbour (same coordinates, builtin-routes.ts).
+    const lake = BUILTIN_ROUTES.find((r) => r.id === 'lake-loop')!;
+    expect(routeEnds(lake.points)).toBe('from Konstanz harbour and back');
+    const danube = BUILTIN_ROUTES.find((r) => r.id === 'danube-valley')!;
+    expect(routeEnds(danube.points)).toBe(`from ${danube.points[0].name} to ${danube.points[danube.points.length - 1].name}`);
+  });
+
+  it('treats ends 300 m apart as two places and 100 m apart as one', () => {
+    // 0.0027° of latitude is about 300 m, 0.0009° about 100 m (1° ≈ 111.2 km, common practice)
+    const a = { name: 'A', lat: 51.5, lon: -0.1 };
+    expect(routeEnds([a, { name: 'B', lat: 51.5027, lon: -0.1 }])).toBe('from A to B');
+    expect(routeEnds([a, { name: 'B', lat: 51.5009, lon: -0.1 }])).toBe('from A and back');
   });
 });

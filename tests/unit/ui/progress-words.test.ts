@@ -19,8 +19,8 @@ const power = (list: ProgressWeek[]) => weeklySentence(list, MEASURES.power, 'en
 
 describe('weeklySentence', () => {
   it('says the chart fills as rides come in when no week has any', () => {
-    expect(power(weeks([null, null]))).toBe('No mean power to show yet: it builds up week by week as rides are uploaded.');
-    expect(power([])).toBe('No mean power to show yet: it builds up week by week as rides are uploaded.');
+    expect(power(weeks([null, null]))).toBe('No mean power to show yet: it builds up week by week as ride files are uploaded.');
+    expect(power([])).toBe('No mean power to show yet: it builds up week by week as ride files are uploaded.');
   });
 
   it('gives the one week with rides, as this week when it is the current one', () => {

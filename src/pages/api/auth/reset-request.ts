@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
 import { requestPasswordReset, resetRequestSchema } from '../../../lib/auth/password-reset';
-import { db } from '../../../lib/db/knex';
+import { authDb } from '../../../lib/data';
 import { readJson } from '../../../lib/http/request';
 import { handle, json } from '../../../lib/http/respond';
 
@@ -8,6 +8,6 @@ import { handle, json } from '../../../lib/http/respond';
 export const POST: APIRoute = ({ request, locals }) =>
   handle(async () => {
     const { email } = await readJson(request, resetRequestSchema);
-    await requestPasswordReset(db(), email, locals);
+    await requestPasswordReset(authDb(), email, locals);
     return json({ message: 'If that e-mail belongs to an active account, a reset link is on its way. It works for 60 minutes.' }, 202);
   });

@@ -1,5 +1,4 @@
 import type { APIRoute } from 'astro';
-import { DateTime } from 'luxon';
 import { signedIn } from '../../../../lib/auth/context';
 import { readJson } from '../../../../lib/http/request';
 import { handle, json } from '../../../../lib/http/respond';
@@ -8,10 +7,7 @@ import { readPrescription, savePrescription } from '../../../../lib/supervision/
 
 export const GET: APIRoute = ({ params, locals }) =>
   handle(async () => {
-    const ctx = signedIn(locals);
-    const client = await ctx.knex('clients').where({ id: params.id }).first('time_zone').catch(() => null);
-    const today = DateTime.now().setZone(client?.time_zone ?? 'UTC').toISODate()!;
-    return json(await readPrescription(ctx, params.id!, today));
+    return json(await readPrescription(signedIn(locals), params.id!));
   });
 
 export const PUT: APIRoute = ({ params, request, locals }) =>

@@ -1,4 +1,4 @@
-import type { Knex } from 'knex';
+import type { Query } from './db';
 
 // Searching and ordering lists by name, the same in every list (triage, the
 // caseload, the client list): every word of the search within the name, in
@@ -11,7 +11,7 @@ export const searchWords = (text: string) => text.trim().split(/\s+/).filter(Boo
 const like = (word: string) => `%${word.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
 
 /** Keeps the rows whose `column` holds every word (ILIKE, with %, _ and \ taken literally). */
-export function whereNameHasWords(q: Knex.QueryBuilder, column: string, text: string): Knex.QueryBuilder {
+export function whereNameHasWords(q: Query, column: string, text: string): Query {
   for (const word of searchWords(text)) q.whereILike(column, like(word));
   return q;
 }
