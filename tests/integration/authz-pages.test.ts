@@ -20,7 +20,6 @@ const TOKEN = 'z'.repeat(43);
 /** The paths to open for a page: its parameters filled with records of each clinic, and the query parameters it reads. */
 const PATHS: Record<string, (w: World) => string[]> = {
   '/clients/[id]': (w) => [w.clientId, w.otherClientId, w.otherClinicClientId].map((id) => `/clients/${id}`),
-  // The record's other views, each a page of its own.
   ...Object.fromEntries(
     ['checks', 'details', 'flags', 'notes', 'pauses', 'prescription', 'sessions'].map((view) => [
       `/clients/[id]/${view}`,

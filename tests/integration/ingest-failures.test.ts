@@ -73,14 +73,14 @@ describe('a worker killed mid-job', () => {
     // report the job done).
     const placement = await world.knex.client.acquireConnection();
     const jobs = await world.knex.client.acquireConnection();
-    const lockPlacement = () => placement.query('SELECT pg_advisory_lock(hashtext($1))', [`rides:${world.clientId}`]);
+    const lockPlacement = () => placement.query('SELECT pg_advisory_lock(hashtextextended($1, 0))', [`rides:${world.clientId}`]);
 
     // A waiting request for that advisory lock (its key's low 32 bits are pg_locks.objid).
     const waitingForLock = () =>
       until(
         'worker waiting for the placement lock',
         async () =>
-          (await world.knex.raw(`SELECT count(*)::int AS n FROM pg_locks WHERE locktype = 'advisory' AND NOT granted AND objid::bigint = (hashtext(?)::bigint & 4294967295)`, [`rides:${world.clientId}`])).rows[0].n,
+          (await world.knex.raw(`SELECT count(*)::int AS n FROM pg_locks WHERE locktype = 'advisory' AND NOT granted AND objid::bigint = (hashtextextended(?, 0) & 4294967295)`, [`rides:${world.clientId}`])).rows[0].n,
         (n) => n > 0,
       );
     try {

@@ -38,13 +38,13 @@ describe('the same bytes sent again', () => {
     // Hold the client's placement lock, as a long parse would, so the first copy stays queued.
     const holder = await world.knex.client.acquireConnection();
     try {
-      await holder.query('SELECT pg_advisory_lock(hashtext($1))', [`rides:${world.clientId}`]);
+      await holder.query('SELECT pg_advisory_lock(hashtextextended($1, 0))', [`rides:${world.clientId}`]);
       const first = await carer.json('POST', '/api/uploads?wait=0', formFor(world.clientId, [{ name: 'first.csv', content }]));
       const again = await carer.json('POST', '/api/uploads?wait=0', formFor(world.clientId, [{ name: 'again.csv', content }]));
       expect(first.body.files[0].status).toBe('queued');
       expect(again.body.files[0].status).toBe('queued');
       expect((await uploadRow(again.body.files[0].uploadId)).duplicate_of_upload_id).toBe(first.body.files[0].uploadId);
-      await holder.query('SELECT pg_advisory_unlock(hashtext($1))', [`rides:${world.clientId}`]);
+      await holder.query('SELECT pg_advisory_unlock(hashtextextended($1, 0))', [`rides:${world.clientId}`]);
 
       const settledFirst = await until('first copy', () => uploadRow(first.body.files[0].uploadId), (r) => r.status !== 'queued');
       const settledAgain = await until('second copy', () => uploadRow(again.body.files[0].uploadId), (r) => r.status !== 'queued');

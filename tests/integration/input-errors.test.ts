@@ -24,6 +24,7 @@ import { createWorld, ROLES, type Role, type World } from '../support/world';
 import { MATRIX } from './authz/matrix';
 import { reportPdfBodySchema } from '../../src/lib/reports/report-data';
 import { energySettingsSchema } from '../../src/lib/reports/energy-settings';
+import { clinicLocaleSchema } from '../../src/lib/supervision/settings';
 import { monitoringInputSchema } from '../../src/lib/monitoring/monitoring';
 
 let world: World;
@@ -126,6 +127,7 @@ const SCHEMAS: Record<string, ZodTypeAny> = {
   'POST /api/clients/[id]/report.pdf': reportPdfBodySchema,
   'POST /api/clients/[id]/monitoring': monitoringInputSchema,
   'PUT /api/clinic/energy': energySettingsSchema,
+  'PATCH /api/clinic/settings': clinicLocaleSchema,
 };
 
 /** The field paths of a zod schema: nested objects give dotted paths, records a `*` key, arrays of objects their first element. */

@@ -27,13 +27,25 @@ export interface OverviewChart {
 
 const countText = (b: OverviewBar) => `${b.count} ${b.count === 1 ? b.unit[0] : b.unit[1]}`;
 
+/** A long category name under a vertical bar, broken at spaces so that neighbours never overlap (chart.js draws an array as lines). */
+function lines(label: string, width = 12): string | string[] {
+  if (label.length <= width) return label;
+  const out: string[] = [];
+  for (const word of label.split(' ')) {
+    const last = out.length - 1;
+    if (last >= 0 && out[last].length + 1 + word.length <= width) out[last] += ` ${word}`;
+    else out.push(word);
+  }
+  return out;
+}
+
 /**
  * One bar chart of the clinic overview with its table: the table is on the
  * page (not hidden) because each row links to the clients behind the figure.
  */
 function ChartWithTable({ chart }: { chart: OverviewChart }) {
-  const data = useMemo<ChartData<'bar', number[], string>>(
-    () => ({ labels: chart.bars.map((b) => b.label), datasets: [{ label: chart.yTitle, data: chart.bars.map((b) => b.count), backgroundColor: PALETTE.lagoon, maxBarThickness: 40 }] }),
+  const data = useMemo<ChartData<'bar', number[], string | string[]>>(
+    () => ({ labels: chart.bars.map((b) => (chart.horizontal ? b.label : lines(b.label))), datasets: [{ label: chart.yTitle, data: chart.bars.map((b) => b.count), backgroundColor: PALETTE.lagoon, maxBarThickness: 40 }] }),
     [chart],
   );
   const options = useMemo<ChartOptions<'bar'>>(() => {
