@@ -1,9 +1,10 @@
 // Times one of the clock-driven jobs over the whole population of the
 // database DATABASE_URL names, in a process of its own so that its peak
 // memory is its own; prints one JSON line. Run by `npm run bench:api`.
-//   tsx scripts/bench-jobs.ts sweep   the flag evaluation the hourly sweep
-//                                     schedules at a client's midnight, for
-//                                     every client, one after another
+//   tsx scripts/bench-jobs.ts sweep   the job the hourly sweep schedules at a
+//                                     client's midnight (flag evaluation, then
+//                                     the stored weeks when a new week began),
+//                                     for every client, one after another
 //   tsx scripts/bench-jobs.ts mail    the hourly scheduled mail (digests,
 //                                     reminders, weekly summaries) at 20:30
 //                                     in the first clinic's time zone
@@ -12,6 +13,7 @@
 import { DateTime } from 'luxon';
 import { closeDatabase, maintenanceKnex } from '../src/lib/data';
 import { sendScheduledEmails } from '../src/lib/notifications/scheduled';
+import { refreshAdherenceIfNeeded } from '../src/lib/supervision/adherence-store';
 import { evaluateClientFlags } from '../src/lib/supervision/flag-store';
 
 const job = process.argv[2];
@@ -32,7 +34,10 @@ try {
   if (job === 'sweep') {
     const now = new Date();
     let changes = 0;
-    for (const c of clients) changes += (await evaluateClientFlags(trx, c.id, now)).length;
+    for (const c of clients) {
+      changes += (await evaluateClientFlags(trx, c.id, now)).length;
+      await refreshAdherenceIfNeeded(trx, c.id, now);
+    }
     detail = { clients: clients.length, changes };
   } else {
     let at = DateTime.now().setZone(clinic?.time_zone ?? 'UTC').set({ hour: 20, minute: 30, second: 0, millisecond: 0 });

@@ -95,8 +95,8 @@ const TARGET_KB = 200;
 export async function measurePages(config, staff, password, BenchSession) {
   const rider = await new BenchSession(config.port).signIn('client@kinloop.test', password);
   const carer = await new BenchSession(config.port).signIn('carer@kinloop.test', password);
-  const { clients } = await staff.json('/api/clients');
-  const jonah = clients.find((c) => c.name === 'Jonah Pryce') ?? clients[0];
+  const { clients } = await staff.json('/api/clients?q=Jonah%20Pryce');
+  const jonah = clients.find((c) => c.name === 'Jonah Pryce') ?? (await staff.json('/api/clients')).clients[0];
   const { sessions } = await staff.json(`/api/clients/${jonah.id}/sessions?limit=1`);
   const pages = [
     ['/triage', staff],

@@ -49,6 +49,24 @@ export type Loadable<T> =
   | { state: 'error'; error: ApiError }
   | { state: 'ready'; data: T };
 
+// A GET that several islands of one page ask for at the same moment (the
+// client page's overview and charts both show adherence, and both reload it
+// after a change) goes to the server once. Only a request started in the last
+// 100 ms is shared: one sent before a change must not answer after it.
+const SHARE_MS = 100;
+const inFlight = new Map<string, { at: number; answer: Promise<unknown> }>();
+
+function sharedGet<T>(url: string): Promise<T> {
+  const now = Date.now();
+  const running = inFlight.get(url);
+  if (running && now - running.at <= SHARE_MS) return running.answer as Promise<T>;
+  const answer = api<T>('GET', url).finally(() => {
+    if (inFlight.get(url)?.answer === answer) inFlight.delete(url);
+  });
+  inFlight.set(url, { at: now, answer });
+  return answer;
+}
+
 /** Loads `url` and reloads on demand; the view shows loading, error and ready states. */
 export function useApi<T>(url: string | null): [Loadable<T>, () => void] {
   const [value, setValue] = useState<Loadable<T>>({ state: 'loading' });
@@ -57,7 +75,7 @@ export function useApi<T>(url: string | null): [Loadable<T>, () => void] {
     if (!url) return;
     let live = true;
     setValue((v) => (v.state === 'ready' ? v : { state: 'loading' }));
-    api<T>('GET', url).then(
+    sharedGet<T>(url).then(
       (data) => live && setValue({ state: 'ready', data }),
       (error: ApiError) => live && setValue({ state: 'error', error }),
     );

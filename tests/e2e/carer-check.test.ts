@@ -120,7 +120,7 @@ describe('a carer’s check with a blood pressure rise', () => {
     const therapist = await clinic.newPage();
     await signInThroughPage(therapist, 'therapist@kinloop.test');
     const api = await therapist.request.get(`${baseUrl()}/api/triage`);
-    const triage = (await api.json()) as { clientName: string; flags: { kind: string; severity: string }[] }[];
+    const triage = (await api.json()).clients as { clientName: string; flags: { kind: string; severity: string }[] }[];
     const entry = triage.find((c) => c.clientName === 'Jonah Pryce');
     expect(entry?.flags.some((f) => f.kind === 'bp_rise' && f.severity === 'urgent')).toBe(true);
 

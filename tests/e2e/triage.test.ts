@@ -137,6 +137,8 @@ describe('triage, the therapist’s home', () => {
     await expect(row(page, 'Elsie Varga').count()).resolves.toBe(0);
 
     await page.getByLabel('Search by client name').fill('noor');
+    // The server searches once typing pauses (paged.ts).
+    await row(page, 'Dev Ramaswamy').waitFor({ state: 'detached' });
     await expect(page.getByTestId('client-row').count()).resolves.toBe(1);
     await page.getByLabel('Severity').selectOption('');
     await page.getByLabel('Search by client name').fill('');

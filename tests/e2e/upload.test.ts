@@ -136,6 +136,8 @@ describe('uploading ride files', () => {
     expect(figures).toContain('Duration2 min');
     expect(figures).toContain('Active1.5 min');
     expect(figures).toContain('Mean cadence42 rpm');
+    // The charts come after the page, with their series (SessionCharts.tsx).
+    await page.locator('canvas[role="img"]').nth(1).waitFor();
     await expect(page.locator('canvas[role="img"]').count()).resolves.toBe(2);
     await expect(page.getByRole('link', { name: 'Download the original file' }).count()).resolves.toBe(1);
     await expect(page.getByRole('link', { name: 'Back to Jonah Pryce' }).count()).resolves.toBe(1);

@@ -242,7 +242,7 @@ describe('triage', () => {
       await world.knex('flags').insert({ client_id: created.body.id, clinic_id: world.clinicId, kind: 'short_session', severity, state: 'open', anchor: `triage-${severity}`, reason: `A ${severity} flag.`, evidence: '{}' });
     }
     const mine = async (who = therapist) =>
-      ((await who.json('GET', '/api/triage')).body as { clientId: string; clientName: string; flags: { id: string; severity: string }[] }[]).filter((r) => Object.values(flagged).includes(r.clientId));
+      ((await who.json('GET', '/api/triage?limit=200')).body.clients as { clientId: string; clientName: string; flags: { id: string; severity: string }[] }[]).filter((r) => Object.values(flagged).includes(r.clientId));
     const rows = await mine();
     expect(rows.map((r) => r.flags.map((f) => f.severity))).toEqual([['urgent'], ['review'], ['info']]);
     expect(rows.map((r) => r.clientId)).toEqual([flagged.urgent, flagged.review, flagged.info]);

@@ -9,7 +9,7 @@ import { Loaded } from '../ui/Loading';
 
 /** The carer's home: each linked client's week, with the two things a carer does for them. */
 export default function CarerHome({ clientIds, locale }: { clientIds: string[]; locale: string }) {
-  const [clients, reload] = useApi<{ clients: ClientChoice[] }>('/api/clients');
+  const [clients, reload] = useApi<{ clients: ClientChoice[] }>('/api/clients?linked=1&limit=200');
   return (
     <Loaded value={clients} reload={reload} label="your clients">
       {({ clients }) => {

@@ -2,6 +2,7 @@ import { useEffect, useRef, useState, type FormEvent, type ReactNode } from 'rea
 import { AD_SYMPTOMS, OTHER_EVENTS } from '../../lib/checks/check-input';
 import { AD_SYMPTOM_LABELS, OTHER_EVENT_LABELS } from '../../lib/checks/labels';
 import { api, ApiError, useApi } from '../api';
+import { ClientSearch, useClientChoices, type ClientChoices } from '../clients/client-choices';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { FieldLink } from '../ui/FieldLink';
@@ -29,12 +30,12 @@ const BP_KEYS = Object.keys(NUMBER_FIELDS) as NumberKey[];
  * pressure and skin folded away but one press from open.
  */
 export default function CheckForm({ initialClientId, viewerClientId, locale }: { initialClientId: string | null; viewerClientId: string | null; locale: string }) {
-  const [clients, reload] = useApi<{ clients: CheckClient[] }>('/api/clients');
+  const choices = useClientChoices<CheckClient>(initialClientId ?? viewerClientId);
   return (
-    <Loaded value={clients} reload={reload} label="your clients">
+    <Loaded value={choices.value} reload={choices.reload} label="your clients">
       {({ clients }) =>
-        clients.length ? (
-          <ChecksForClients clients={clients} initialClientId={initialClientId} viewerClientId={viewerClientId} locale={locale} />
+        clients.length || choices.searchable ? (
+          <ChecksForClients clients={clients} choices={choices} initialClientId={initialClientId} viewerClientId={viewerClientId} locale={locale} />
         ) : (
           <EmptyState title="No client to record a check for">Once a clinic links you to a client, you can record their checks here.</EmptyState>
         )
@@ -43,22 +44,39 @@ export default function CheckForm({ initialClientId, viewerClientId, locale }: {
   );
 }
 
-function ChecksForClients({ clients, initialClientId, viewerClientId, locale }: { clients: CheckClient[]; initialClientId: string | null; viewerClientId: string | null; locale: string }) {
+function ChecksForClients({
+  clients,
+  choices,
+  initialClientId,
+  viewerClientId,
+  locale,
+}: {
+  clients: CheckClient[];
+  choices: ClientChoices<CheckClient>;
+  initialClientId: string | null;
+  viewerClientId: string | null;
+  locale: string;
+}) {
   const [clientId, setClientId] = useState(() =>
-    clients.length === 1 ? clients[0].id : clients.some((c) => c.id === initialClientId) ? (initialClientId as string) : clients.some((c) => c.id === viewerClientId) ? (viewerClientId as string) : '',
+    clients.length === 1 && !choices.searchable ? clients[0].id : clients.some((c) => c.id === initialClientId) ? (initialClientId as string) : clients.some((c) => c.id === viewerClientId) ? (viewerClientId as string) : '',
   );
   const [version, setVersion] = useState(0);
-  const client = clients.find((c) => c.id === clientId) ?? null;
+  // The chosen client stays chosen while a search lists others.
+  const seen = useRef(new Map<string, CheckClient>());
+  for (const c of clients) seen.current.set(c.id, c);
+  const client = seen.current.get(clientId) ?? null;
+  const listed = client && !clients.some((c) => c.id === client.id) ? [client, ...clients] : clients;
   const self = client !== null && client.id === viewerClientId;
   return (
     <div className="space-y-8">
-      {clients.length > 1 && (
-        <div className="card max-w-md">
+      {(listed.length > 1 || choices.searchable) && (
+        <div className="card max-w-md space-y-4">
+          <ClientSearch choices={choices} shown={clients.length} />
           <SelectField
             label="Client"
             value={clientId}
             onChange={(e) => setClientId(e.target.value)}
-            options={[...(client ? [] : [{ value: '', label: 'Choose a client' }]), ...clients.map((c) => ({ value: c.id, label: c.name }))]}
+            options={[...(client ? [] : [{ value: '', label: 'Choose a client' }]), ...listed.map((c) => ({ value: c.id, label: c.name }))]}
           />
         </div>
       )}

@@ -1,22 +1,24 @@
 import type { SortingState } from '@tanstack/react-table';
 import { useCallback, useState } from 'react';
-import { useApi } from '../api';
+import { NO_FILTER, type RowFilter } from '../triage/filter';
 import { Button } from '../ui/Button';
 import CautionBanner from '../ui/CautionBanner';
 import { EmptyState } from '../ui/EmptyState';
 import { Loaded } from '../ui/Loading';
 import { ClientTable } from '../triage/ClientTable';
-import { filterRows, NO_FILTER, type RowFilter } from '../triage/filter';
 import { FlagFilters } from '../triage/FlagFilters';
 import { FlagSummary } from '../triage/FlagSummary';
+import { firstPage, usePagedRows } from '../triage/paged';
+import { ShowMore } from '../triage/ShowMore';
 import type { ClientRow } from '../triage/types';
 
 /** The staff caseload: every client of the clinic with their open flags and figures. */
 export default function Caseload({ locale }: { locale: string }) {
-  const [value, reload] = useApi<{ clients: ClientRow[] }>('/api/caseload');
   const [filter, setFilter] = useState<RowFilter>(NO_FILTER);
   const [sorting, setSorting] = useState<SortingState>([{ id: 'client', desc: false }]);
+  const list = usePagedRows('/api/caseload', filter, sorting);
   const renderFlags = useCallback((row: ClientRow) => <FlagSummary row={row} />, []);
+  const value = firstPage(list);
   return (
     <div className="space-y-5">
       <div className="flex flex-wrap items-center justify-between gap-3">
@@ -28,16 +30,15 @@ export default function Caseload({ locale }: { locale: string }) {
         </a>
       </div>
       <CautionBanner compact />
-      <Loaded value={value} reload={reload} label="the caseload">
-        {({ clients }) => {
-          if (!clients.length) {
+      <Loaded value={value} reload={list.reload} label="the caseload">
+        {(page) => {
+          if (!page.all.clients) {
             return (
               <EmptyState title="No clients yet">
                 <p>Clients appear here once they are added to your clinic.</p>
               </EmptyState>
             );
           }
-          const visible = filterRows(clients, filter);
           return (
             <section aria-labelledby="caseload-list" className="space-y-4">
               <div className="flex flex-wrap items-baseline justify-between gap-2">
@@ -45,12 +46,15 @@ export default function Caseload({ locale }: { locale: string }) {
                   Caseload
                 </h2>
                 <p className="text-ink-soft" aria-live="polite">
-                  {visible.length === clients.length ? `${clients.length} ${clients.length === 1 ? 'client' : 'clients'}` : `Showing ${visible.length} of ${clients.length} clients`}
+                  {page.total === page.all.clients ? `${page.all.clients} ${page.all.clients === 1 ? 'client' : 'clients'}` : `${page.total} of ${page.all.clients} clients match`}
                 </p>
               </div>
-              <FlagFilters rows={clients} filter={filter} onChange={setFilter} byFlag={false} />
-              {visible.length ? (
-                <ClientTable caption="Caseload" rows={visible} renderFlags={renderFlags} sorting={sorting} onSortingChange={setSorting} locale={locale} />
+              <FlagFilters counts={page.all} filter={filter} onChange={setFilter} byFlag={false} />
+              {list.rows.length ? (
+                <>
+                  <ClientTable caption="Caseload" rows={list.rows} renderFlags={renderFlags} sorting={sorting} onSortingChange={setSorting} locale={locale} />
+                  <ShowMore list={list} noun="clients" />
+                </>
               ) : (
                 <EmptyState title="No client matches that name">
                   <Button variant="secondary" className="mt-2" onClick={() => setFilter(NO_FILTER)}>

@@ -23,7 +23,7 @@ const columns = [
 ];
 
 export default function ClientList() {
-  const [clients, reload] = useApi<{ clients: ClientView[] }>('/api/clients');
+  const [clients, reload] = useApi<{ clients: ClientView[] }>('/api/clients?limit=200');
   return (
     <Loaded value={clients} reload={reload} label="clients">
       {({ clients }) => (

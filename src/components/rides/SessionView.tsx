@@ -1,12 +1,13 @@
-import { CadencePowerChart } from './CadencePowerChart';
-import { ChannelChart } from './ChannelChart';
+import { lazy, Suspense } from 'react';
 import { ChannelTable, SessionFigures } from './SessionFigures';
 import type { SessionData } from './types';
 
+// chart.js and the series come only with the charts (SessionCharts.tsx).
+const SessionCharts = lazy(() => import('./SessionCharts'));
+
 /** One session: headline figures, the two charts with their tables, the channels and the import warnings. */
-export default function SessionView({ session, startedLabel, timeZone }: { session: SessionData; startedLabel: string; timeZone: string }) {
-  const { summary, series } = session;
-  const endS = Math.max(series?.phases.at(-1)?.toS ?? 0, summary.durationS, 1);
+export default function SessionView({ session, hasSeries, startedLabel, timeZone }: { session: Omit<SessionData, 'series'>; hasSeries: boolean; startedLabel: string; timeZone: string }) {
+  const { summary } = session;
   return (
     <div className="space-y-8">
       <section aria-labelledby="figures-h" className="space-y-3">
@@ -16,32 +17,16 @@ export default function SessionView({ session, startedLabel, timeZone }: { sessi
         <SessionFigures summary={summary} startedLabel={startedLabel} timeZone={timeZone} startedAtSource={session.startedAtSource} />
       </section>
 
-      {series ? (
-        <>
-          <section aria-labelledby="cadence-power-h" className="card space-y-3">
-            <h2 id="cadence-power-h" className="text-xl">
-              Cadence and power
-            </h2>
-            <CadencePowerChart series={series} endS={endS} />
-          </section>
-          <section aria-labelledby="current-h" className="card space-y-3">
-            <h2 id="current-h" className="text-xl">
-              Current per channel
-            </h2>
-            <ChannelChart series={series} endS={endS} />
-          </section>
-          {series.downsampled && (
-            <p className="text-sm text-ink-soft">
-              The charts draw a reduced set of points that keeps the peaks and dips; the figures above use all {summary.samples.toLocaleString()} samples.
-            </p>
-          )}
-        </>
+      {hasSeries ? (
+        <Suspense fallback={<p role="status" className="py-6 text-ink-soft">Loading the charts…</p>}>
+          <SessionCharts sessionId={session.id} durationS={summary.durationS} samples={summary.samples} />
+        </Suspense>
       ) : (
         <p className="text-ink-soft">The samples of this session are not stored, so there are no charts; the figures above still apply.</p>
       )}
 
       {/* Without channels the current chart already says so; say it once. */}
-      {(Object.keys(summary.channels).length > 0 || !series) && (
+      {(Object.keys(summary.channels).length > 0 || !hasSeries) && (
         <section aria-labelledby="channels-h" className="space-y-3">
           <h2 id="channels-h" className="text-xl">
             Channels

@@ -1,5 +1,6 @@
 import { useEffect, useId, useRef, useState } from 'react';
 import { api, ApiError, useApi } from '../api';
+import { ClientSearch, useClientChoices, type ClientChoices } from '../clients/client-choices';
 import { Button } from '../ui/Button';
 import { EmptyState } from '../ui/EmptyState';
 import { SelectField } from '../ui/Field';
@@ -28,13 +29,13 @@ interface ProfileChoice {
 const SENDING_AT_ONCE = 2;
 
 export default function UploadRides({ initialClientId }: { initialClientId: string | null }) {
-  const [clients, reload] = useApi<{ clients: ClientChoice[] }>('/api/clients');
+  const choices = useClientChoices<ClientChoice>(initialClientId);
   const [profiles] = useApi<{ profiles: ProfileChoice[] }>('/api/import-profiles');
   return (
-    <Loaded value={clients} reload={reload} label="your clients">
+    <Loaded value={choices.value} reload={choices.reload} label="your clients">
       {({ clients }) =>
-        clients.length ? (
-          <Uploader clients={clients} profiles={profiles.state === 'ready' ? profiles.data.profiles : []} initialClientId={initialClientId} />
+        clients.length || choices.searchable ? (
+          <Uploader clients={clients} choices={choices} profiles={profiles.state === 'ready' ? profiles.data.profiles : []} initialClientId={initialClientId} />
         ) : (
           <EmptyState title="No client to upload for">Ride files are uploaded for a client. Once a clinic links you to a client, you can upload their rides here.</EmptyState>
         )
@@ -43,10 +44,13 @@ export default function UploadRides({ initialClientId }: { initialClientId: stri
   );
 }
 
-function Uploader({ clients, profiles, initialClientId }: { clients: ClientChoice[]; profiles: ProfileChoice[]; initialClientId: string | null }) {
+function Uploader({ clients, choices, profiles, initialClientId }: { clients: ClientChoice[]; choices: ClientChoices<ClientChoice>; profiles: ProfileChoice[]; initialClientId: string | null }) {
   const [clientId, setClientId] = useState(() =>
-    clients.length === 1 ? clients[0].id : clients.some((c) => c.id === initialClientId) ? initialClientId! : '',
+    clients.length === 1 && !choices.searchable ? clients[0].id : clients.some((c) => c.id === initialClientId) ? initialClientId! : '',
   );
+  // The chosen client stays chosen while a search lists others.
+  const seen = useRef(new Map<string, ClientChoice>());
+  for (const c of clients) seen.current.set(c.id, c);
   const [profileId, setProfileId] = useState('');
   const [entries, setEntries] = useState<UploadEntry[]>([]);
   const [messages, setMessages] = useState<string[]>([]);
@@ -58,7 +62,8 @@ function Uploader({ clients, profiles, initialClientId }: { clients: ClientChoic
   const counter = useRef(0);
   const listHeading = useId();
 
-  const client = clients.find((c) => c.id === clientId) ?? null;
+  const client = seen.current.get(clientId) ?? null;
+  const listed = client && !clients.some((c) => c.id === client.id) ? [client, ...clients] : clients;
   const clinicProfiles = client ? profiles.filter((p) => p.clinicId === client.clinicId) : [];
 
   // A file dropped beside the drop zone would otherwise make the browser leave the page to show it.
@@ -166,7 +171,8 @@ function Uploader({ clients, profiles, initialClientId }: { clients: ClientChoic
   return (
     <div className="space-y-6">
       <div className="space-y-4">
-        {clients.length > 1 ? (
+        <ClientSearch choices={choices} shown={clients.length} />
+        {listed.length > 1 || choices.searchable ? (
           <SelectField
             label="Client"
             value={clientId}
@@ -174,7 +180,7 @@ function Uploader({ clients, profiles, initialClientId }: { clients: ClientChoic
               setClientId(e.target.value);
               setProfileId('');
             }}
-            options={[{ value: '', label: 'Choose a client' }, ...clients.map((c) => ({ value: c.id, label: c.name }))]}
+            options={[{ value: '', label: 'Choose a client' }, ...listed.map((c) => ({ value: c.id, label: c.name }))]}
           />
         ) : (
           <p>

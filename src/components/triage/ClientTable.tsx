@@ -2,7 +2,6 @@ import {
   createColumnHelper,
   flexRender,
   getCoreRowModel,
-  getSortedRowModel,
   useReactTable,
   type SortingState,
 } from '@tanstack/react-table';
@@ -89,7 +88,8 @@ export function ClientTable({
     state: { sorting },
     onSortingChange: (updater) => onSortingChange(typeof updater === 'function' ? updater(sorting) : updater),
     getCoreRowModel: getCoreRowModel(),
-    getSortedRowModel: getSortedRowModel(),
+    // The server orders the whole list (triage and the caseload come a page at a time).
+    manualSorting: true,
     enableSortingRemoval: false,
     getRowId: (r) => r.clientId,
   });

@@ -2,22 +2,20 @@ import { FLAG_KINDS, FLAG_SEVERITIES } from '../../lib/flags/types';
 import { SelectField, TextField } from '../ui/Field';
 import { FLAG_KIND_WORDS, FLAG_SEVERITY_WORDS } from '../../lib/flags/words';
 import type { RowFilter } from './filter';
-import { flagCounts } from './filter';
-import type { ClientRow } from './types';
+import type { ListPage } from './types';
 
-/** Search by client name and, when `byFlag`, menus for flag kind and severity with their counts. */
+/** Search by client name and, when `byFlag`, menus for flag kind and severity with their counts over the whole list. */
 export function FlagFilters({
-  rows,
+  counts,
   filter,
   onChange,
   byFlag,
 }: {
-  rows: ClientRow[];
+  counts: ListPage['all'];
   filter: RowFilter;
   onChange: (filter: RowFilter) => void;
   byFlag: boolean;
 }) {
-  const counts = flagCounts(rows);
   return (
     <div role="search" aria-label="Filter clients" className={`grid gap-3 ${byFlag ? 'grid-cols-2 sm:grid-cols-3 [&>*:first-child]:col-span-2 sm:[&>*:first-child]:col-span-1' : 'sm:max-w-sm'}`}>
       <TextField
@@ -37,7 +35,7 @@ export function FlagFilters({
             onChange={(e) => onChange({ ...filter, severity: e.target.value as RowFilter['severity'] })}
             options={[
               { value: '', label: 'All severities' },
-              ...FLAG_SEVERITIES.map((s) => ({ value: s, label: `${FLAG_SEVERITY_WORDS[s]} (${counts.severity.get(s) ?? 0})` })),
+              ...FLAG_SEVERITIES.map((s) => ({ value: s, label: `${FLAG_SEVERITY_WORDS[s]} (${counts.bySeverity[s] ?? 0})` })),
             ]}
           />
           <SelectField
@@ -47,7 +45,7 @@ export function FlagFilters({
             onChange={(e) => onChange({ ...filter, kind: e.target.value as RowFilter['kind'] })}
             options={[
               { value: '', label: 'All kinds' },
-              ...FLAG_KINDS.map((k) => ({ value: k, label: `${FLAG_KIND_WORDS[k]} (${counts.kind.get(k) ?? 0})` })),
+              ...FLAG_KINDS.map((k) => ({ value: k, label: `${FLAG_KIND_WORDS[k]} (${counts.byKind[k] ?? 0})` })),
             ]}
           />
         </>

@@ -1,6 +1,7 @@
-// Narrowing the triage and caseload rows by flag kind, severity and client name.
+// Narrowing the triage and caseload rows by flag kind, severity and client
+// name: the page's choices, which the server applies to the whole list
+// (src/lib/supervision/caseload.ts).
 import type { FlagKind, FlagSeverity } from '../../lib/flags/types';
-import type { ClientRow } from './types';
 
 export interface RowFilter {
   kind: FlagKind | '';
@@ -12,32 +13,4 @@ export const NO_FILTER: RowFilter = { kind: '', severity: '', search: '' };
 
 export function isFiltering(f: RowFilter): boolean {
   return Boolean(f.kind || f.severity || f.search.trim());
-}
-
-/**
- * Rows whose client name contains the search words. With a kind or severity
- * chosen, each row keeps only the flags that match, and rows left without
- * flags drop out.
- */
-export function filterRows(rows: ClientRow[], f: RowFilter): ClientRow[] {
-  const words = f.search.trim().toLocaleLowerCase().split(/\s+/).filter(Boolean);
-  const byFlag = Boolean(f.kind || f.severity);
-  return rows.flatMap((row) => {
-    const name = row.clientName.toLocaleLowerCase();
-    if (!words.every((w) => name.includes(w))) return [];
-    if (!byFlag) return [row];
-    const flags = row.flags.filter((flag) => (!f.kind || flag.kind === f.kind) && (!f.severity || flag.severity === f.severity));
-    return flags.length ? [{ ...row, flags }] : [];
-  });
-}
-
-/** How many open flags of each kind and severity the rows hold, for the filter menus. */
-export function flagCounts(rows: ClientRow[]): { kind: Map<FlagKind, number>; severity: Map<FlagSeverity, number> } {
-  const kind = new Map<FlagKind, number>();
-  const severity = new Map<FlagSeverity, number>();
-  for (const flag of rows.flatMap((r) => r.flags)) {
-    kind.set(flag.kind, (kind.get(flag.kind) ?? 0) + 1);
-    severity.set(flag.severity, (severity.get(flag.severity) ?? 0) + 1);
-  }
-  return { kind, severity };
 }

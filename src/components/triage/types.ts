@@ -16,4 +16,14 @@ export interface ClientRow extends ClientOverview {
   care: CareStatus;
 }
 
+/** One page of triage or the caseload (src/lib/supervision/caseload.ts, CaseloadPage). */
+export interface ListPage {
+  clients: ClientRow[];
+  total: number;
+  offset: number;
+  limit: number;
+  nextOffset: number | null;
+  all: { clients: number; flags: number; byKind: Record<string, number>; bySeverity: Record<string, number> };
+}
+
 export type FlagAction = 'acknowledge' | 'snooze' | 'resolve';

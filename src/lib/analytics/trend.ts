@@ -32,6 +32,9 @@ export function linearTrend(points: { x: number; y: number }[]): LinearTrend | n
 
 const WEEK_MS = 7 * 24 * 3600 * 1000;
 
+/** The weeks the caseload's power trend looks back over. */
+export const POWER_TREND_WEEKS = 8;
+
 /**
  * Change of mean power in W per week over the sessions that started in the
  * `weeks` weeks up to `now` (each 7 × 24 h). Null with fewer than three
@@ -40,7 +43,7 @@ const WEEK_MS = 7 * 24 * 3600 * 1000;
 export function powerTrendPerWeek(
   sessions: { startedAt: string; meanPowerW: number | null }[],
   now: string,
-  weeks = 8,
+  weeks = POWER_TREND_WEEKS,
 ): number | null {
   const nowMs = Date.parse(now);
   if (Number.isNaN(nowMs)) throw new RangeError(`now is not an instant: ${now}`);

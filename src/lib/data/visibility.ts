@@ -107,6 +107,9 @@ export const READ_RULES: Record<string, Rule> = {
   ad_plans: ofReadableClient,
   messages: ofReadableClient,
   message_reads: ofReadableClient,
+  // The stored weeks of a client's program (adherence-store.ts): figures whoever may read the client sees.
+  adherence_state: ofReadableClient,
+  adherence_weeks: ofReadableClient,
   ride_series: (q, a, k, v) => void q.where((w) => w.whereIn(`${a}.ride_id`, k('rides').select('id').whereIn('client_id', readableClientIds(k, v)))),
   // The clinic's records about a client: its staff only.
   client_notes: ofManagedClient,
@@ -159,6 +162,8 @@ export const CLIENT_TABLES = new Set([
   'progression_proposals',
   'messages',
   'message_reads',
+  'adherence_state',
+  'adherence_weeks',
 ]);
 export const CLINIC_TABLES = new Set([
   'clients',

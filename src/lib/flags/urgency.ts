@@ -20,6 +20,15 @@ export function urgencyGroup(flag: Pick<Urgent, 'kind' | 'severity'>): number {
   return flag.severity === 'urgent' ? 1 : flag.severity === 'review' ? 2 : 3;
 }
 
+/**
+ * `urgencyGroup` as SQL over the flag columns of `alias` (kind, severity), for
+ * ordering a whole list in PostgreSQL; the caseload-pages integration test
+ * holds the two to the same order.
+ */
+export function urgencyGroupSql(alias: string): string {
+  return `CASE WHEN ${alias}.kind = 'bp_rise' THEN 0 WHEN ${alias}.severity = 'urgent' THEN 1 WHEN ${alias}.severity = 'review' THEN 2 ELSE 3 END`;
+}
+
 /** Most urgent first; for flags of one group, the one raised earlier. */
 export function compareUrgency(a: Urgent, b: Urgent): number {
   return urgencyGroup(a) - urgencyGroup(b) || Date.parse(a.raisedAt) - Date.parse(b.raisedAt);

@@ -5,9 +5,11 @@ import { DATABASE_UNAVAILABLE, isDatabaseUnavailable, isStorageUnavailable, STOR
 const NO_STORE = { 'cache-control': 'no-store' };
 
 export function json(body: unknown, status = 200, headers: Record<string, string> = {}): Response {
-  return new Response(JSON.stringify(body), {
+  const text = JSON.stringify(body);
+  // The length lets the server's compression leave small answers as they are (scripts/serve.mjs).
+  return new Response(text, {
     status,
-    headers: { 'content-type': 'application/json; charset=utf-8', ...NO_STORE, ...headers },
+    headers: { 'content-type': 'application/json; charset=utf-8', 'content-length': String(Buffer.byteLength(text)), ...NO_STORE, ...headers },
   });
 }
 

@@ -4,6 +4,7 @@ import { failureMessage, markUploadFailed } from '../ingest/failures';
 import { processUpload } from '../ingest/process';
 import { resendStaleUploads, sweepOrphanObjects } from '../ingest/sweep';
 import { deliverDueEmails } from '../mail/outbox';
+import { refreshStaleAdherence } from '../supervision/adherence-store';
 import { registerFlagJobs } from '../supervision/flag-jobs';
 import { sendScheduledEmails } from '../notifications/scheduled';
 import { ParsePool } from './parse-pool';
@@ -12,6 +13,7 @@ import { QUEUES, queue, workQueue } from './queue';
 const OUTBOX_POLL_MS = 2000;
 const SWEEP_MS = 60_000;
 const ORPHAN_SWEEP_MS = 60 * 60_000;
+const STALE_WEEKS_PER_SWEEP = 200;
 
 let started: Promise<void> | null = null;
 let pool: ParsePool | null = null;
@@ -54,6 +56,8 @@ export function startBackgroundWork(): Promise<void> {
     });
     every(OUTBOX_POLL_MS, 'outbox delivery', () => deliverDueEmails(workerDb()));
     every(SWEEP_MS, 'upload sweep', () => resendStaleUploads(workerDb()));
+    // Stored weeks left stale (a threshold change, a seed, a refresh that failed), a page at a time.
+    every(SWEEP_MS, 'stored weeks', () => refreshStaleAdherence(workerDb(), { maxClients: STALE_WEEKS_PER_SWEEP }));
     every(ORPHAN_SWEEP_MS, 'orphan object sweep', async () => {
       const deleted = await sweepOrphanObjects(workerDb());
       if (deleted.length) console.log(`orphan object sweep deleted ${deleted.length} object(s) no upload names`);

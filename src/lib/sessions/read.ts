@@ -37,12 +37,18 @@ async function sessionWithClient(ctx: RequestContext, id: string, points: number
   return { session: { ...sessionListItem(row), series: stored ? chartSeries(decodeSeries(stored.data), points) : null }, client };
 }
 
-/** What the session page shows: the session, whose it is, and whether the caller may download its ride file. */
-export async function readSessionPage(ctx: RequestContext, id: string, points: number) {
-  const { session, client } = await sessionWithClient(ctx, id, points);
-  const upload = await client.db('uploads').where({ id: session.uploadId }).first('uploaded_by');
+/**
+ * What the session page shows: the session without its series (its charts
+ * fetch the series themselves, SessionCharts.tsx) and whether it has one,
+ * whose it is, and whether the caller may download its ride file.
+ */
+export async function readSessionPage(ctx: RequestContext, id: string) {
+  const { row, client } = await scope(ctx).record('session', id, 'read', 'session.view', { sessionId: id });
+  const stored = await client.db('ride_series').where({ ride_id: row.id }).first('ride_id');
+  const upload = await client.db('uploads').where({ id: row.upload_id }).first('uploaded_by');
   return {
-    session,
+    session: sessionListItem(row),
+    hasSeries: stored !== undefined,
     client: { id: client.id, name: client.row.display_name, timeZone: client.row.time_zone, managed: client.managed },
     canDownload: upload !== undefined && canDownloadRaw(ctx.viewer, upload, client.row),
   };

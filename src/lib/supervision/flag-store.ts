@@ -35,7 +35,7 @@ export async function evaluateClientFlags(knex: Db, clientId: string, now = new 
     await lock(trx, `flags:${clientId}`);
     const client = await trx<ClientRow>('clients').where({ id: clientId }).first();
     if (!client || client.archived_at) return [];
-    const history = await loadHistory(trx, client);
+    const history = await loadHistory(trx, client, { rules: true });
     const stored = await trx<FlagRow>('flags').where({ client_id: clientId }).whereIn('kind', SESSION_FLAG_KINDS);
     const planned = planFlagChanges(stored.map(existingFlag), flagInput(history, now));
     for (const change of planned) {

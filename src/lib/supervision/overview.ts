@@ -2,11 +2,11 @@
 // last session and power trend, computed from the same history the flags use.
 import { computeAdherence } from '../adherence';
 import { roundTo } from '../analytics/round';
-import { powerTrendPerWeek } from '../analytics/trend';
+import { powerTrendPerWeek, POWER_TREND_WEEKS } from '../analytics/trend';
 import type { Db } from '../data/db';
 import type { ClientRow } from '../db/tables';
+import { readClients } from './adherence-store';
 import type { ClientHistory } from './history';
-import { loadHistories } from './history';
 
 export interface ClientOverview {
   lastSessionAt: string | null;
@@ -37,7 +37,22 @@ export function overviewOf(h: ClientHistory, now: Date, weeks = 12) {
 
 const roundTrend = (v: number | null) => (v === null ? null : roundTo(v, 2));
 
-export async function overviews(db: Db, clients: ClientRow[], now: Date): Promise<Map<string, ClientOverview>> {
-  const histories = await loadHistories(db, clients);
-  return new Map(histories.map((h) => [h.client.id, overviewOf(h, now).overview]));
+/**
+ * `overviewOf`'s figures for several clients in one query whatever their
+ * history (adherence-store.ts, readClients): adherence and streak from the
+ * stored weeks, the last session by the (client, start) index, the power
+ * trend from the sessions of its own eight weeks only.
+ */
+export async function figuresOf(db: Db, clients: Pick<ClientRow, 'id'>[], now: Date): Promise<Map<string, ClientOverview>> {
+  const read = await readClients(db, clients, now, 1, { sessionsSince: new Date(now.getTime() - POWER_TREND_WEEKS * 7 * 86_400_000) });
+  const out = new Map<string, ClientOverview>();
+  for (const [id, r] of read) {
+    out.set(id, {
+      lastSessionAt: r.lastSessionAt,
+      adherence4wPct: r.adherence.adherence4wPct,
+      streakWeeks: r.adherence.streakWeeks,
+      powerTrendWPerWeek: roundTrend(powerTrendPerWeek(r.recent, now.toISOString())),
+    });
+  }
+  return out;
 }
