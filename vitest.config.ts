@@ -4,6 +4,11 @@ import { defineConfig } from 'vitest/config';
 // service-backed ones against the stack that scripts/test.mjs has started.
 export default defineConfig({
   test: {
+    // Two files at a time even on a 2-core machine (vitest's default there is
+    // one): most of an integration or browser file's time is spent waiting on
+    // the app, the worker, PostgreSQL or Chromium, so a second file fills the
+    // gaps. Browser files still run one after another (fileParallelism below).
+    maxWorkers: 2,
     projects: [
       {
         test: {
