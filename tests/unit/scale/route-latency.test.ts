@@ -7,6 +7,8 @@ describe('percentile', () => {
   it('takes the nearest rank', () => {
     const sorted = [15, 20, 35, 40, 50];
     expect(percentile(sorted, 5)).toBe(15);
+    // Hand-worked from the definition: 15 covers only 20 % of the values, so p21 is the next one.
+    expect(percentile(sorted, 21)).toBe(20);
     expect(percentile(sorted, 30)).toBe(20);
     expect(percentile(sorted, 40)).toBe(20);
     expect(percentile(sorted, 50)).toBe(35);
