@@ -6,14 +6,16 @@
 //   verify  — after the run, waits (bounded) until the worker has read every
 //             file the run's carers uploaded, then checks each: read and
 //             accepted, exactly one session at the start time sent, and its
-//             stored object byte for byte what was sent (SHA-256).
+//             stored object byte for byte what was sent (SHA-256); and that
+//             no object the run stored is left without an upload naming it
+//             (a request cut off mid-upload must leave nothing behind).
 // Arguments and answers are JSON files, so nothing large goes through argv.
 import { createHash } from 'node:crypto';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import { closeDatabase, maintenanceDb } from '../src/lib/data';
 import type { UploadRow } from '../src/lib/db/tables';
-import { getObjectBytes } from '../src/lib/storage/s3';
+import { getObjectBytes, listObjects } from '../src/lib/storage/s3';
 
 const { positionals, values } = parseArgs({
   allowPositionals: true,
@@ -154,7 +156,26 @@ async function verify({ sent, since, waitSeconds }: VerifyInput) {
   // An answer that named an upload the database does not hold is the worst case: a file said to be saved and lost.
   const held = new Set(rows.map((r) => r.id));
   for (const s of sent) if (s.uploadId && !held.has(s.uploadId)) problem(null, s, 'answered as saved, but no such upload is stored');
-  return { uploads: rows.length, verified, unanswered, stillQueued: queued, waitedMs, problems };
+  // Objects of the run under the clients' folders (the key layout of uploadRideFiles) that no upload names.
+  const named = new Set(rows.map((r) => r.storage_key));
+  const clinics: { id: string; clinic_id: string }[] = await db('clients').whereIn('id', clientIds).select('id', 'clinic_id');
+  let orphans = 0;
+  let objects = 0;
+  for (const c of clinics) {
+    let token: string | undefined;
+    do {
+      const page = await listObjects(`rides/${c.clinic_id}/${c.id}/`, token);
+      for (const o of page.objects) {
+        if (o.lastModified.getTime() < Date.parse(since) - 1000) continue;
+        objects++;
+        if (named.has(o.key)) continue;
+        orphans++;
+        problem(null, undefined, `object ${o.key} is stored but no upload names it`);
+      }
+      token = page.next;
+    } while (token);
+  }
+  return { uploads: rows.length, verified, unanswered, stillQueued: queued, waitedMs, objects, orphans, problems };
 }
 
 try {

@@ -414,7 +414,7 @@ async function run(instance, therapists, carers, seconds) {
 }
 
 async function verifyUploads(instance) {
-  if (!instance.sent.length) return { uploads: 0, verified: 0, unanswered: 0, stillQueued: 0, waitedMs: 0, problems: [], sent: 0, answered: 0 };
+  if (!instance.sent.length) return { uploads: 0, verified: 0, unanswered: 0, stillQueued: 0, waitedMs: 0, objects: 0, orphans: 0, problems: [], sent: 0, answered: 0 };
   const result = await dataTask(instance, 'verify', { sent: instance.sent, since: instance.since, waitSeconds: SETTLE_S });
   return { ...result, sent: instance.sent.length, answered: instance.sent.filter((s) => s.uploadId).length };
 }
@@ -480,7 +480,7 @@ function print(results, alone, instances, verified) {
     const v = verified[who];
     const errors = instances[who].serverErrors ?? [];
     lines.push(
-      `  ${who}: ${v.sent} files sent, ${v.answered} answered with an upload, ${v.uploads} stored (${v.unanswered} of them without an answer: the run ended or the request timed out); ${v.verified} verified (accepted, one session, object identical by SHA-256); ${v.stillQueued} still queued after ${(v.waitedMs / 1000).toFixed(0)} s; ${errors.length} 5xx answers`,
+      `  ${who}: ${v.sent} files sent, ${v.answered} answered with an upload, ${v.uploads} stored (${v.unanswered} of them without an answer: the run ended or the request timed out); ${v.verified} verified (accepted, one session, object identical by SHA-256); ${v.stillQueued} still queued after ${(v.waitedMs / 1000).toFixed(0)} s; ${v.objects} objects stored, ${v.orphans} of them without an upload; ${errors.length} 5xx answers`,
     );
     for (const p of v.problems.slice(0, 20)) lines.push(`    upload ${p.uploadId ?? '–'} (${p.name}): ${p.problem}`);
     if (v.problems.length > 20) lines.push(`    … and ${v.problems.length - 20} more`);
@@ -496,7 +496,7 @@ function print(results, alone, instances, verified) {
     '',
     '÷ alone = the same route with one user alone on the same instance, this run (a therapist for theirs, a carer for theirs). scale ÷ demo = the scale population against ten clients with the same users.',
     'POST /api/uploads includes the server waiting up to 8 s for the worker to read the file, as the upload page does.',
-    failed ? 'VERIFICATION FAILED' : 'verification passed: every stored upload accepted with one session and an identical object; no 5xx',
+    failed ? 'VERIFICATION FAILED' : 'verification passed: every stored upload accepted with one session and an identical object, no object left without its upload, no 5xx',
   );
   console.log(lines.join('\n'));
   return failed;
