@@ -34,6 +34,7 @@ export class RouteLatency {
 
   /** Per route: answers, answers per second over `seconds`, p50/p95/p99/max in ms, and the answers that were not 2xx. */
   summary(seconds) {
+    /** @type {Record<string, { n: number, perSecond: number, p50: number | null, p95: number | null, p99: number | null, max: number, non2xx: number, serverErrors: number, statuses: Record<string, number> }>} */
     const out = {};
     for (const [route, { times, statuses }] of this.routes) {
       const sorted = [...times].sort((a, b) => a - b);
